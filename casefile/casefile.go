@@ -1,0 +1,257 @@
+// Package casefile reads flame1d case files: TOML documents that say which
+// mechanism, which mixture, at which conditions, with which numerical
+// settings, and where results go. Values with units may be written as
+// strings ("298 K", "1 atm", "2 cm"); bare numbers are SI. Every key is
+// documented in docs/case-file.md. Unknown keys are errors that name the key
+// and its line, so typos never pass silently.
+package casefile
+
+import (
+	"errors"
+	"fmt"
+	"os"
+	"sort"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"flame1d/internal/tomlpos"
+	"flame1d/units"
+)
+
+// Case is a parsed, unit-converted case file. Compositions are still by
+// species name; they are resolved against the mechanism later.
+type Case struct {
+	File      string
+	Title     string
+	Mechanism string // built-in name or path (relative paths resolved against the case file's folder)
+
+	Fuel             map[string]float64 // mole fractions by species name (normalised)
+	Oxidizer         map[string]float64 // mole fractions (normalised); default air
+	EquivalenceRatio float64
+	Temperature      float64 // unburned, K
+	Pressure         float64 // Pa
+
+	Grid   GridSettings
+	Solver SolverSettings
+	Output OutputSettings
+}
+
+// GridSettings mirror the [grid] table; zero means "solver default".
+type GridSettings struct {
+	InitialPoints int
+	Slope, Curve  float64
+	Ratio         float64
+	Prune         float64
+	MaxPoints     int
+	DomainLength  float64 // m
+}
+
+// SolverSettings mirror the [solver] table; zero means "solver default".
+type SolverSettings struct {
+	ThermalDiffusion bool
+	RelativeTol      float64
+	AnchorRise       float64 // K above the unburned temperature
+	Workers          int
+}
+
+// OutputSettings mirror the [output] table.
+type OutputSettings struct {
+	Directory string
+}
+
+// DefaultOxidizer is dry air as 21% O2 / 79% N2 by volume.
+func DefaultOxidizer() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
+
+// raw is the TOML layout. Quantities are `any` so that both "298 K" and
+// 298.0 are accepted.
+type raw struct {
+	Title     string `toml:"title"`
+	Mechanism string `toml:"mechanism"`
+	Mixture   struct {
+		Fuel             map[string]float64 `toml:"fuel"`
+		Oxidizer         map[string]float64 `toml:"oxidizer"`
+		EquivalenceRatio *float64           `toml:"equivalence_ratio"`
+		Temperature      any                `toml:"temperature"`
+		Pressure         any                `toml:"pressure"`
+	} `toml:"mixture"`
+	Grid struct {
+		InitialPoints int     `toml:"initial_points"`
+		Slope         float64 `toml:"slope"`
+		Curve         float64 `toml:"curve"`
+		Ratio         float64 `toml:"ratio"`
+		Prune         float64 `toml:"prune"`
+		MaxPoints     int     `toml:"max_points"`
+		DomainLength  any     `toml:"domain_length"`
+	} `toml:"grid"`
+	Solver struct {
+		ThermalDiffusion *bool   `toml:"thermal_diffusion"`
+		RelativeTol      float64 `toml:"relative_tolerance"`
+		AnchorRise       float64 `toml:"anchor_rise"`
+		Workers          int     `toml:"workers"`
+	} `toml:"solver"`
+	Output struct {
+		Directory string `toml:"directory"`
+	} `toml:"output"`
+}
+
+// FieldError is a problem with one key of a case file.
+type FieldError struct {
+	File string
+	Line int // 0 when unknown
+	Key  string
+	Msg  string
+}
+
+func (e *FieldError) Error() string {
+	loc := e.File
+	if e.Line > 0 {
+		loc = fmt.Sprintf("%s:%d", e.File, e.Line)
+	}
+	return fmt.Sprintf("%s: %s: %s", loc, e.Key, e.Msg)
+}
+
+// ReadFile parses and checks a case file.
+func ReadFile(path string) (*Case, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("case file: %w", err)
+	}
+	return Parse(src, path)
+}
+
+// Parse parses and checks case-file text; file names the source in errors.
+func Parse(src []byte, file string) (*Case, error) {
+	var r raw
+	md, err := toml.Decode(string(src), &r)
+	if err != nil {
+		var pe toml.ParseError
+		if errors.As(err, &pe) {
+			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, pe.Position.Line, pe.Message)
+		}
+		return nil, fmt.Errorf("%s: %w", file, err)
+	}
+	if und := md.Undecoded(); len(und) > 0 {
+		k := und[0]
+		return nil, &FieldError{File: file, Line: tomlpos.Line(src, k), Key: k.String(),
+			Msg: "unknown key (check the spelling; docs/case-file.md lists every key)"}
+	}
+	fe := func(key, format string, a ...any) error {
+		return &FieldError{File: file, Line: tomlpos.Line(src, strings.Split(key, ".")), Key: key, Msg: fmt.Sprintf(format, a...)}
+	}
+	c := &Case{File: file, Title: r.Title, Mechanism: r.Mechanism}
+	if c.Mechanism == "" {
+		c.Mechanism = "gri30"
+	}
+	if len(r.Mixture.Fuel) == 0 {
+		return nil, fe("mixture.fuel", "missing: give the fuel as mole fractions, e.g. fuel = { CH4 = 1.0 }")
+	}
+	if c.Fuel, err = normalised(r.Mixture.Fuel); err != nil {
+		return nil, fe("mixture.fuel", "%v", err)
+	}
+	c.Oxidizer = DefaultOxidizer()
+	if len(r.Mixture.Oxidizer) > 0 {
+		if c.Oxidizer, err = normalised(r.Mixture.Oxidizer); err != nil {
+			return nil, fe("mixture.oxidizer", "%v", err)
+		}
+	}
+	if r.Mixture.EquivalenceRatio == nil {
+		return nil, fe("mixture.equivalence_ratio", "missing: e.g. equivalence_ratio = 1.0")
+	}
+	c.EquivalenceRatio = *r.Mixture.EquivalenceRatio
+	if !(c.EquivalenceRatio > 0 && c.EquivalenceRatio < 100) {
+		return nil, fe("mixture.equivalence_ratio", "must be positive (got %g)", c.EquivalenceRatio)
+	}
+	if c.Temperature, err = quantity(r.Mixture.Temperature, units.Temperature, 298.15); err != nil {
+		return nil, fe("mixture.temperature", "%v", err)
+	}
+	if !(c.Temperature > 150 && c.Temperature < 2000) {
+		return nil, fe("mixture.temperature", "unburned temperature %g K is outside 150-2000 K", c.Temperature)
+	}
+	if c.Pressure, err = quantity(r.Mixture.Pressure, units.Pressure, 101325); err != nil {
+		return nil, fe("mixture.pressure", "%v", err)
+	}
+	if !(c.Pressure >= 100 && c.Pressure <= 1e8) {
+		return nil, fe("mixture.pressure", "pressure %g Pa is outside 100 Pa - 100 MPa", c.Pressure)
+	}
+
+	g := r.Grid
+	c.Grid = GridSettings{InitialPoints: g.InitialPoints, Slope: g.Slope, Curve: g.Curve, Ratio: g.Ratio, Prune: g.Prune, MaxPoints: g.MaxPoints}
+	if c.Grid.DomainLength, err = quantity(g.DomainLength, units.Length, 0); err != nil {
+		return nil, fe("grid.domain_length", "%v", err)
+	}
+	for _, chk := range []struct {
+		key string
+		bad bool
+		msg string
+	}{
+		{"grid.initial_points", g.InitialPoints != 0 && g.InitialPoints < 8, "needs at least 8 points"},
+		{"grid.slope", g.Slope < 0 || g.Slope >= 1, "must lie in (0, 1)"},
+		{"grid.curve", g.Curve < 0 || g.Curve >= 1, "must lie in (0, 1)"},
+		{"grid.ratio", g.Ratio != 0 && g.Ratio < 1.2, "must be at least 1.2"},
+		{"grid.prune", g.Prune < 0 || g.Prune >= 1, "must lie in [0, 1)"},
+		{"grid.max_points", g.MaxPoints != 0 && g.MaxPoints < 20, "must be at least 20"},
+		{"grid.domain_length", c.Grid.DomainLength < 0, "must be positive"},
+	} {
+		if chk.bad {
+			return nil, fe(chk.key, "%s", chk.msg)
+		}
+	}
+
+	s := r.Solver
+	c.Solver = SolverSettings{ThermalDiffusion: true, RelativeTol: s.RelativeTol, Workers: s.Workers}
+	if s.ThermalDiffusion != nil {
+		c.Solver.ThermalDiffusion = *s.ThermalDiffusion
+	}
+	c.Solver.AnchorRise = s.AnchorRise
+	if s.AnchorRise != 0 && !(s.AnchorRise >= 20 && s.AnchorRise <= 1500) {
+		return nil, fe("solver.anchor_rise", "temperature rise at the anchor point must lie in 20-1500 K (got %g)", s.AnchorRise)
+	}
+	if s.RelativeTol < 0 || s.RelativeTol > 1e-2 {
+		return nil, fe("solver.relative_tolerance", "must lie in (0, 1e-2]")
+	}
+	if s.Workers < 0 {
+		return nil, fe("solver.workers", "must be 0 (all cores) or positive")
+	}
+	c.Output.Directory = r.Output.Directory
+	return c, nil
+}
+
+// quantity converts a TOML value (number in SI, or a string with units) to
+// SI; nil gives the default.
+func quantity(v any, d units.Dimension, def float64) (float64, error) {
+	switch x := v.(type) {
+	case nil:
+		return def, nil
+	case int64:
+		return float64(x), nil
+	case float64:
+		return x, nil
+	case string:
+		return units.Parse(x, d)
+	default:
+		return 0, fmt.Errorf("expected a number or a string with units, got %T", v)
+	}
+}
+
+// normalised checks a composition and scales it to sum to one.
+func normalised(comp map[string]float64) (map[string]float64, error) {
+	sum := 0.0
+	names := make([]string, 0, len(comp))
+	for n, v := range comp {
+		if !(v >= 0) {
+			return nil, fmt.Errorf("amount of %s must be non-negative (got %g)", n, v)
+		}
+		sum += v
+		names = append(names, n)
+	}
+	if !(sum > 0) {
+		return nil, fmt.Errorf("amounts sum to zero")
+	}
+	sort.Strings(names)
+	out := make(map[string]float64, len(comp))
+	for _, n := range names {
+		out[n] = comp[n] / sum
+	}
+	return out, nil
+}

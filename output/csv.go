@@ -1,0 +1,53 @@
+package output
+
+import (
+	"encoding/csv"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+)
+
+// Table is a rectangular set of named columns for CSV output. Column names
+// carry their units, e.g. "T [K]".
+type Table struct {
+	// Comments are written first as lines starting with "# " (most CSV readers
+	// can skip them; they carry the provenance and the safety note).
+	Comments []string
+	Header   []string
+	Rows     [][]float64
+}
+
+// FormatFloat renders a value at full precision (shortest round-trip form).
+func FormatFloat(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// WriteCSV writes the table. It refuses NaN or Inf values: a result that is
+// not a number must never appear as one.
+func (t *Table) WriteCSV(w io.Writer) error {
+	for _, c := range t.Comments {
+		if _, err := fmt.Fprintf(w, "# %s\n", c); err != nil {
+			return err
+		}
+	}
+	cw := csv.NewWriter(w)
+	if err := cw.Write(t.Header); err != nil {
+		return err
+	}
+	rec := make([]string, len(t.Header))
+	for i, row := range t.Rows {
+		if len(row) != len(t.Header) {
+			return fmt.Errorf("row %d has %d values for %d columns", i+1, len(row), len(t.Header))
+		}
+		for c, v := range row {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return fmt.Errorf("row %d, column %q is not a finite number", i+1, t.Header[c])
+			}
+			rec[c] = FormatFloat(v)
+		}
+		if err := cw.Write(rec); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}

@@ -1,0 +1,118 @@
+package output
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strings"
+
+	"flame1d/flame"
+)
+
+// FlameSummary is the machine-readable result of one flame. Field names
+// carry their units.
+type FlameSummary struct {
+	Title                string             `json:"title,omitempty"`
+	Mechanism            string             `json:"mechanism"`
+	Fuel                 map[string]float64 `json:"fuel_mole_fractions"`
+	Oxidizer             map[string]float64 `json:"oxidizer_mole_fractions"`
+	EquivalenceRatio     float64            `json:"equivalence_ratio"`
+	UnburnedTemperatureK float64            `json:"unburned_temperature_K"`
+	PressurePa           float64            `json:"pressure_Pa"`
+	Converged            bool               `json:"converged"`
+	FlameSpeed           float64            `json:"flame_speed_m_s"`
+	MassFlux             float64            `json:"mass_flux_kg_m2_s"`
+	BurnedTemperature    float64            `json:"burned_temperature_K"`
+	AdiabaticTemperature float64            `json:"adiabatic_temperature_K"`
+	ThermalThickness     float64            `json:"thermal_thickness_m"`
+	PeakHeatReleaseX     float64            `json:"peak_heat_release_position_m"`
+	GridPoints           int                `json:"grid_points"`
+	DomainLength         float64            `json:"domain_length_m"`
+	NewtonIterations     int                `json:"newton_iterations"`
+	TimeSteps            int                `json:"time_steps"`
+	JacobianEvaluations  int                `json:"jacobian_evaluations"`
+	Refinements          int                `json:"grid_refinements"`
+	WallTimeS            float64            `json:"wall_time_s"`
+	Note                 string             `json:"note"`
+}
+
+// Check refuses summaries with non-finite numbers.
+func (s *FlameSummary) Check() error {
+	for name, v := range map[string]float64{
+		"flame_speed_m_s": s.FlameSpeed, "burned_temperature_K": s.BurnedTemperature,
+		"adiabatic_temperature_K": s.AdiabaticTemperature, "thermal_thickness_m": s.ThermalThickness,
+	} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fmt.Errorf("summary value %s is not a finite number", name)
+		}
+	}
+	return nil
+}
+
+// WriteJSON writes the summary as indented JSON.
+func (s *FlameSummary) WriteJSON(w io.Writer) error {
+	if err := s.Check(); err != nil {
+		return err
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(s)
+}
+
+// WriteText writes the short human summary.
+func (s *FlameSummary) WriteText(w io.Writer) error {
+	if err := s.Check(); err != nil {
+		return err
+	}
+	var b strings.Builder
+	if s.Title != "" {
+		fmt.Fprintf(&b, "%s\n", s.Title)
+	}
+	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
+	fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.Fuel))
+	fmt.Fprintf(&b, "  oxidizer                %s\n", formatComposition(s.Oxidizer))
+	fmt.Fprintf(&b, "  equivalence ratio       %.4g\n", s.EquivalenceRatio)
+	fmt.Fprintf(&b, "  unburned T, P           %.2f K, %.6g Pa (%.4g atm)\n", s.UnburnedTemperatureK, s.PressurePa, s.PressurePa/101325)
+	fmt.Fprintf(&b, "  laminar flame speed     %.4f m/s  (%.2f cm/s)\n", s.FlameSpeed, 100*s.FlameSpeed)
+	fmt.Fprintf(&b, "  burned temperature      %.1f K   (adiabatic equilibrium %.1f K)\n", s.BurnedTemperature, s.AdiabaticTemperature)
+	fmt.Fprintf(&b, "  thermal thickness       %.4g mm\n", 1e3*s.ThermalThickness)
+	fmt.Fprintf(&b, "  grid                    %d points over %.4g mm\n", s.GridPoints, 1e3*s.DomainLength)
+	fmt.Fprintf(&b, "  work                    %d Newton iterations, %d time steps, %d Jacobians, %d refinements, %.2f s\n",
+		s.NewtonIterations, s.TimeSteps, s.JacobianEvaluations, s.Refinements, s.WallTimeS)
+	fmt.Fprintf(&b, "  note                    %s\n", s.Note)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+func formatComposition(c map[string]float64) string {
+	keys := make([]string, 0, len(c))
+	for k := range c {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	parts := make([]string, len(keys))
+	for i, k := range keys {
+		parts[i] = fmt.Sprintf("%s %.4g", k, c[k])
+	}
+	return strings.Join(parts, ", ")
+}
+
+// ProfileTable lays a flame profile out as CSV columns: position,
+// temperature, velocity, density, heat-release rate and the mole fraction of
+// every species.
+func ProfileTable(p *flame.Profile, comments []string) *Table {
+	t := &Table{Comments: comments}
+	t.Header = []string{"x [m]", "T [K]", "u [m/s]", "rho [kg/m3]", "heat_release [W/m3]"}
+	for _, s := range p.Species {
+		t.Header = append(t.Header, "X_"+s+" [-]")
+	}
+	for j := range p.X {
+		row := make([]float64, 0, len(t.Header))
+		row = append(row, p.X[j], p.T[j], p.Velocity[j], p.Density[j], p.HeatRelease[j])
+		row = append(row, p.MoleFractions[j]...)
+		t.Rows = append(t.Rows, row)
+	}
+	return t
+}
