@@ -1,0 +1,695 @@
+package newton
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"time"
+)
+
+// ErrNotConverged is wrapped by every error Solve returns when it stops
+// without meeting the convergence test.
+var ErrNotConverged = errors.New("newton: not converged")
+
+// Problem is a system of nonlinear equations F(u) = 0 on a grid of points
+// with a fixed number of unknowns per point. The residual at point j may
+// depend only on the unknowns of points j−1, j and j+1.
+type Problem interface {
+	// Size returns the number of grid points and of unknowns per point.
+	Size() (points, block int)
+	// Residual writes F(u) into f. Both are point-major: component c of
+	// point j is at index j·block + c. A non-nil error (for example a
+	// non-physical state) marks u as unusable; the solver then damps its
+	// step or shortens its time step instead of stopping.
+	Residual(u, f []float64) error
+}
+
+// Transient is implemented by problems whose pseudo-transient form is
+// w ⊙ du/dt = −F(u) with weights other than 1.
+type Transient interface {
+	// TransientWeights writes into w the coefficient w_i ≥ 0 of du_i/dt;
+	// w_i = 0 marks an algebraic equation (for example a boundary
+	// condition or a flux equation with no time derivative).
+	TransientWeights(u, w []float64)
+}
+
+// JacobianEvaluator is implemented by problems that supply their own
+// Jacobian of F. Otherwise Solve uses FiniteDifferenceJacobian on Residual.
+type JacobianEvaluator interface {
+	// Jacobian fills J (zeroed before the call) with ∂F/∂u at u, where
+	// f0 = F(u).
+	Jacobian(u, f0 []float64, J *BlockTridiagonal) error
+}
+
+// Event reports progress to Options.Progress.
+type Event struct {
+	// Stage is "newton" for a steady Newton step and "timestep" for an
+	// accepted pseudo-time step.
+	Stage string
+	// Iteration counts steady Newton steps taken in this Solve (stage
+	// "newton") or pseudo-time steps accepted (stage "timestep").
+	Iteration int
+	// ResidualNorm is max_i |F_i| at the new state, in the units of F.
+	ResidualNorm float64
+	// StepNorm is the scaled max norm (see Options) of the undamped Newton
+	// step (stage "newton") or of u − u_old (stage "timestep").
+	StepNorm float64
+	// Damping is the factor λ ∈ (0, 1] applied to the Newton step; 1 for
+	// stage "timestep".
+	Damping float64
+	// TimeStep is the pseudo-time step just taken; 0 for stage "newton".
+	TimeStep float64
+}
+
+// Options controls Solve. Use DefaultOptions and modify it.
+//
+// Convergence: Solve stops when the undamped Newton step Δu satisfies
+//
+//	max_i |Δu_i| / (RelTol_c·|u_i| + AbsTol_c) < 1,
+//
+// c being the component of unknown i. The max norm (not RMS) is used so that
+// a thin reaction zone cannot hide among many converged points and the test
+// does not loosen as the grid is refined. The step is then applied.
+type Options struct {
+	// AbsTol and RelTol are the absolute (units of the unknown) and
+	// relative tolerances per block component, length block. AbsTol > 0.
+	AbsTol, RelTol []float64
+	// Lower and Upper bound each block component (length block; nil means
+	// unbounded). Newton steps are shortened so that u stays inside; an
+	// unknown sitting exactly on its bound with a step pointing outward
+	// blocks progress, so physical limits (for example a mass fraction of
+	// 0) are best given a small margin.
+	Lower, Upper []float64
+	// MaxNewtonIterations limits each steady Newton attempt (≥ 1).
+	MaxNewtonIterations int
+	// MaxJacobianAge is the largest number of Newton steps taken with one
+	// Jacobian (≥ 1; 1 means a fresh Jacobian for every step). A Jacobian
+	// is also renewed as soon as the contraction ‖Δū_{k+1}‖/‖Δu_k‖ exceeds
+	// 1/2, a step needed damping, or a trial point fails with it.
+	MaxJacobianAge int
+	// TimeStep is the first pseudo-time step; MinTimeStep and MaxTimeStep
+	// bound it (units: time in the units implied by the transient weights,
+	// seconds when w and F are physical rates). After an accepted step dt
+	// is multiplied by TimeStepGrowth (≥ 1) up to MaxTimeStep; after a
+	// failed one it is halved, and Solve fails once it drops below
+	// MinTimeStep.
+	TimeStep, MinTimeStep, MaxTimeStep, TimeStepGrowth float64
+	// StepsPerAttempt pseudo-time steps are taken whenever steady Newton
+	// fails, at most MaxTimeStepAttempts times (0 disables time stepping).
+	StepsPerAttempt, MaxTimeStepAttempts int
+	// Progress, when non-nil, is called after every accepted step.
+	Progress func(Event)
+}
+
+// DefaultOptions returns options for a problem with block unknowns per
+// point. The tolerances and step controls are common practice, no source:
+// relative 1e−4 and absolute 1e−9, unbounded unknowns, 30 Newton steps,
+// Jacobian reused up to 10 steps, pseudo-time steps from 1e−6 between
+// 1e−12 and 1e−2 growing by 2, 10 steps per attempt, 20 attempts.
+func DefaultOptions(block int) Options {
+	o := Options{
+		AbsTol:              make([]float64, block),
+		RelTol:              make([]float64, block),
+		Lower:               make([]float64, block),
+		Upper:               make([]float64, block),
+		MaxNewtonIterations: 30,
+		MaxJacobianAge:      10,
+		TimeStep:            1e-6,
+		MinTimeStep:         1e-12,
+		MaxTimeStep:         1e-2,
+		TimeStepGrowth:      2,
+		StepsPerAttempt:     10,
+		MaxTimeStepAttempts: 20,
+	}
+	for c := range block {
+		o.AbsTol[c] = 1e-9
+		o.RelTol[c] = 1e-4
+		o.Lower[c] = math.Inf(-1)
+		o.Upper[c] = math.Inf(1)
+	}
+	return o
+}
+
+func (o *Options) validate(b int) error {
+	if len(o.AbsTol) != b || len(o.RelTol) != b {
+		return fmt.Errorf("AbsTol and RelTol need one entry per block component (%d), have %d and %d", b, len(o.AbsTol), len(o.RelTol))
+	}
+	for c := range b {
+		if !(o.AbsTol[c] > 0) || math.IsInf(o.AbsTol[c], 0) {
+			return fmt.Errorf("AbsTol[%d] = %g, want finite and > 0", c, o.AbsTol[c])
+		}
+		if !(o.RelTol[c] >= 0) || math.IsInf(o.RelTol[c], 0) {
+			return fmt.Errorf("RelTol[%d] = %g, want finite and ≥ 0", c, o.RelTol[c])
+		}
+	}
+	if (o.Lower != nil && len(o.Lower) != b) || (o.Upper != nil && len(o.Upper) != b) {
+		return fmt.Errorf("Lower and Upper need one entry per block component (%d) or nil, have %d and %d", b, len(o.Lower), len(o.Upper))
+	}
+	for c := range b {
+		lo, hi := o.bounds(c)
+		if math.IsNaN(lo) || math.IsNaN(hi) || !(lo < hi) {
+			return fmt.Errorf("bounds of component %d are [%g, %g], want lower < upper", c, lo, hi)
+		}
+	}
+	if o.MaxNewtonIterations < 1 {
+		return fmt.Errorf("MaxNewtonIterations = %d, want ≥ 1", o.MaxNewtonIterations)
+	}
+	if o.MaxJacobianAge < 1 {
+		return fmt.Errorf("MaxJacobianAge = %d, want ≥ 1", o.MaxJacobianAge)
+	}
+	if o.MaxTimeStepAttempts < 0 {
+		return fmt.Errorf("MaxTimeStepAttempts = %d, want ≥ 0", o.MaxTimeStepAttempts)
+	}
+	if o.MaxTimeStepAttempts == 0 {
+		return nil
+	}
+	if o.StepsPerAttempt < 1 {
+		return fmt.Errorf("StepsPerAttempt = %d, want ≥ 1", o.StepsPerAttempt)
+	}
+	if !(o.MinTimeStep > 0 && o.MinTimeStep <= o.TimeStep && o.TimeStep <= o.MaxTimeStep) || math.IsInf(o.MaxTimeStep, 0) {
+		return fmt.Errorf("time steps: want 0 < MinTimeStep ≤ TimeStep ≤ MaxTimeStep < ∞, have %g, %g, %g", o.MinTimeStep, o.TimeStep, o.MaxTimeStep)
+	}
+	if !(o.TimeStepGrowth >= 1) || math.IsInf(o.TimeStepGrowth, 0) {
+		return fmt.Errorf("TimeStepGrowth = %g, want finite and ≥ 1", o.TimeStepGrowth)
+	}
+	return nil
+}
+
+func (o *Options) bounds(c int) (lo, hi float64) {
+	lo, hi = math.Inf(-1), math.Inf(1)
+	if o.Lower != nil {
+		lo = o.Lower[c]
+	}
+	if o.Upper != nil {
+		hi = o.Upper[c]
+	}
+	return lo, hi
+}
+
+// Result summarises a Solve.
+type Result struct {
+	Converged bool
+	// NewtonIterations counts accepted Newton steps, steady and inside
+	// pseudo-time steps; TimeSteps counts accepted pseudo-time steps.
+	NewtonIterations, TimeSteps int
+	// JacobianEvaluations, Factorizations and ResidualEvaluations count
+	// calls; ResidualEvaluations includes those made by the
+	// finite-difference Jacobian.
+	JacobianEvaluations, Factorizations, ResidualEvaluations int
+	// ResidualTime is spent in Problem.Residual (all calls), JacobianTime
+	// in building Jacobians (including the residual calls of finite
+	// differences, so it overlaps ResidualTime), FactorTime in Factor and
+	// SolveTime in the block-tridiagonal back-substitutions.
+	ResidualTime, JacobianTime, FactorTime, SolveTime time.Duration
+	// StepNorm is the scaled max norm of the last steady Newton step and
+	// ResidualNorm is max_i |F_i| at the returned u.
+	StepNorm, ResidualNorm float64
+}
+
+const (
+	// minDamping is the smallest damping factor tried before a Newton
+	// attempt is declared failed (ten halvings).
+	minDamping = 1.0 / 1024
+	// reuseContraction is the largest contraction ‖Δū_{k+1}‖/‖Δu_k‖ for
+	// which the Jacobian is kept for the next step.
+	reuseContraction = 0.5
+	// transientNewtonIterations limits the Newton iteration of one
+	// pseudo-time step; a step that needs more is better cut.
+	transientNewtonIterations = 10
+	// timeStepCut multiplies dt after a failed pseudo-time step.
+	timeStepCut = 0.5
+)
+
+// fdPerturbation is the relative and absolute finite-difference increment,
+// √ε for double precision (Dennis & Schnabel 1996, §5.4).
+var fdPerturbation = math.Sqrt(0x1p-52)
+
+// Solve finds u with F(u) = 0 for the problem p, starting from u and
+// overwriting it. The method is the damped Newton method of Deuflhard,
+// "Newton Methods for Nonlinear Problems" (Springer 2004), §3.3: the step
+// Δu_k = −J⁻¹F(u_k) is damped by the largest λ ∈ {1, ½, ¼, …} ≥ 1/1024
+// (further limited to keep u within the bounds) that passes the restricted
+// natural monotonicity test
+//
+//	‖Δū_{k+1}‖ ≤ (1 − λ/4)·‖Δu_k‖,   Δū_{k+1} = −J(u_k)⁻¹ F(u_k + λΔu_k),
+//
+// in the scaled max norm of Options; trial points where the residual fails
+// are treated as failing the test. The Jacobian is reused over steps while
+// the contraction stays below ½ (the next step is then the simplified
+// correction Δū already computed) and renewed when it stalls.
+//
+// When a steady Newton attempt fails, Solve takes Options.StepsPerAttempt
+// backward-Euler steps of the pseudo-transient problem w ⊙ du/dt = −F(u),
+//
+//	F(u) + w ⊙ (u − u_old)/dt = 0,
+//
+// each solved by a short damped Newton iteration with Jacobian J + diag(w/dt),
+// and then tries steady Newton again: the alternation used for premixed
+// flames by Smooke, Miller & Kee, Combust. Sci. Technol. 34 (1983) 79–90,
+// and Grcar, "The Twopnt program for boundary value problems", Sandia report
+// SAND91-8230 (1992). w comes from the Transient interface (1 for every
+// unknown otherwise) evaluated at u_old.
+//
+// On success u holds the solution. Otherwise u holds the last accepted state
+// and the error wraps ErrNotConverged and says why. Solve allocates its work
+// arrays once per call.
+func Solve(p Problem, u []float64, opt Options) (Result, error) {
+	n, b := p.Size()
+	if n < 1 || b < 1 {
+		return Result{}, fmt.Errorf("newton: problem size %d points × %d components, want at least 1 × 1", n, b)
+	}
+	if len(u) != n*b {
+		return Result{}, fmt.Errorf("newton: len(u) = %d, want %d points × %d components = %d", len(u), n, b, n*b)
+	}
+	if err := opt.validate(b); err != nil {
+		return Result{}, fmt.Errorf("newton: options: %w", err)
+	}
+	for j := range n {
+		for c := range b {
+			v := u[j*b+c]
+			lo, hi := opt.bounds(c)
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return Result{}, fmt.Errorf("newton: initial state at point %d, component %d is %g", j, c, v)
+			}
+			if v < lo || v > hi {
+				return Result{}, fmt.Errorf("newton: initial state at point %d, component %d is %g, outside its bounds [%g, %g]", j, c, v, lo, hi)
+			}
+		}
+	}
+	s := newSolver(p, n, b, opt)
+	err := s.run(u)
+	s.res.ResidualNorm = maxAbs(s.f)
+	return s.res, err
+}
+
+// solver holds the state and work arrays of one Solve.
+type solver struct {
+	p    Problem
+	jac  JacobianEvaluator // nil: finite differences
+	tr   Transient         // nil: unit weights
+	n, b int
+	opt  Options
+	res  Result
+
+	lo, hi []float64 // bounds per component
+
+	J        *BlockTridiagonal
+	jacValid bool // J holds ∂F/∂u at some earlier accepted state
+	factored bool // J's factors match its current values
+	jacAge   int  // accepted steps since J was evaluated
+
+	transient bool
+	applied   []float64 // diagonal shift currently added to J.Diag
+	wdt       []float64 // w/dt of the current pseudo-time step
+
+	f, ft, du, dubar, ut, wt, uOld, fOld, fSteady, w []float64
+
+	fdResidual func(u, f []float64) error
+}
+
+func newSolver(p Problem, n, b int, opt Options) *solver {
+	size := n * b
+	s := &solver{p: p, n: n, b: b, opt: opt, J: NewBlockTridiagonal(n, b)}
+	s.jac, _ = p.(JacobianEvaluator)
+	s.tr, _ = p.(Transient)
+	s.lo, s.hi = make([]float64, b), make([]float64, b)
+	for c := range b {
+		s.lo[c], s.hi[c] = opt.bounds(c)
+	}
+	work := make([]float64, 12*size)
+	next := func() []float64 {
+		v := work[:size:size]
+		work = work[size:]
+		return v
+	}
+	s.f, s.ft, s.du, s.dubar, s.ut, s.wt = next(), next(), next(), next(), next(), next()
+	s.uOld, s.fOld, s.fSteady, s.w, s.applied, s.wdt = next(), next(), next(), next(), next(), next()
+	s.fdResidual = s.residual
+	return s
+}
+
+func (s *solver) run(u []float64) error {
+	if err := s.residual(u, s.f); err != nil {
+		return fmt.Errorf("%w: residual at the initial state: %w", ErrNotConverged, err)
+	}
+	ok, why := s.newton(u, s.opt.MaxNewtonIterations)
+	if ok {
+		s.res.Converged = true
+		return nil
+	}
+	dt := s.opt.TimeStep
+	for attempt := 1; attempt <= s.opt.MaxTimeStepAttempts; attempt++ {
+		if err := s.timeSteps(u, &dt); err != nil {
+			return fmt.Errorf("%w: pseudo-time stepping (attempt %d, %d steps taken): %w", ErrNotConverged, attempt, s.res.TimeSteps, err)
+		}
+		if ok, why = s.newton(u, s.opt.MaxNewtonIterations); ok {
+			s.res.Converged = true
+			return nil
+		}
+	}
+	return fmt.Errorf("%w: steady Newton failed after %d pseudo-time attempts (%d steps): %w", ErrNotConverged, s.opt.MaxTimeStepAttempts, s.res.TimeSteps, why)
+}
+
+// residual evaluates F(u) into f, counting and timing the call and
+// rejecting non-finite values.
+func (s *solver) residual(u, f []float64) error {
+	t0 := time.Now()
+	err := s.p.Residual(u, f)
+	s.res.ResidualTime += time.Since(t0)
+	s.res.ResidualEvaluations++
+	if err != nil {
+		return err
+	}
+	for i, v := range f {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fmt.Errorf("residual is %g at point %d, component %d", v, i/s.b, i%s.b)
+		}
+	}
+	return nil
+}
+
+// system evaluates the residual of the current system: F(u) when steady,
+// F(u) + w ⊙ (u − u_old)/dt during a pseudo-time step.
+func (s *solver) system(u, f []float64) error {
+	if err := s.residual(u, f); err != nil {
+		return err
+	}
+	if s.transient {
+		for i, c := range s.wdt {
+			f[i] += c * (u[i] - s.uOld[i])
+		}
+	}
+	return nil
+}
+
+// refreshJacobian evaluates ∂F/∂u at u, where s.f is the current system's
+// residual at u.
+func (s *solver) refreshJacobian(u []float64) error {
+	f0 := s.f
+	if s.transient {
+		f0 = s.fSteady
+		for i, c := range s.wdt {
+			f0[i] = s.f[i] - c*(u[i]-s.uOld[i])
+		}
+	}
+	t0 := time.Now()
+	var err error
+	if s.jac != nil {
+		s.J.Zero()
+		err = s.jac.Jacobian(u, f0, s.J)
+	} else {
+		err = FiniteDifferenceJacobian(s.fdResidual, u, f0, s.J, fdPerturbation, fdPerturbation)
+	}
+	s.res.JacobianTime += time.Since(t0)
+	s.res.JacobianEvaluations++
+	s.factored = false
+	clear(s.applied)
+	if err != nil {
+		s.jacValid = false
+		return fmt.Errorf("Jacobian: %w", err)
+	}
+	s.jacValid = true
+	s.jacAge = 0
+	return nil
+}
+
+// factor brings the diagonal shift of J to that of the current system
+// (w/dt or none) and factors J if needed.
+func (s *solver) factor() error {
+	b := s.b
+	for j := range s.n {
+		d := s.J.DiagBlock(j)
+		for c := range b {
+			i := j*b + c
+			want := 0.0
+			if s.transient {
+				want = s.wdt[i]
+			}
+			if want != s.applied[i] {
+				d[c*b+c] += want - s.applied[i]
+				s.applied[i] = want
+				s.factored = false
+			}
+		}
+	}
+	if s.factored {
+		return nil
+	}
+	t0 := time.Now()
+	err := s.J.Factor()
+	s.res.FactorTime += time.Since(t0)
+	s.res.Factorizations++
+	if err != nil {
+		s.jacValid = false
+		return err
+	}
+	s.factored = true
+	return nil
+}
+
+// step sets dx = −J⁻¹ r and returns its scaled norm.
+func (s *solver) step(r, dx []float64) float64 {
+	t0 := time.Now()
+	for i, v := range r {
+		dx[i] = -v
+	}
+	s.J.Solve(dx)
+	s.res.SolveTime += time.Since(t0)
+	return s.norm(dx)
+}
+
+// setWeights sets the scaling 1/(RelTol_c·|u_i| + AbsTol_c) at u.
+func (s *solver) setWeights(u []float64) {
+	b := s.b
+	for j := range s.n {
+		for c := range b {
+			i := j*b + c
+			s.wt[i] = 1 / (s.opt.RelTol[c]*math.Abs(u[i]) + s.opt.AbsTol[c])
+		}
+	}
+}
+
+// norm is the scaled max norm; NaN entries give NaN.
+func (s *solver) norm(x []float64) float64 {
+	m := 0.0
+	for i, v := range x {
+		a := math.Abs(v) * s.wt[i]
+		if a > m || math.IsNaN(a) {
+			m = a
+		}
+	}
+	return m
+}
+
+// boundLimit returns the largest λ ≤ 1 with u + λ·du inside the bounds.
+func (s *solver) boundLimit(u, du []float64) float64 {
+	lam := 1.0
+	b := s.b
+	for j := range s.n {
+		for c := range b {
+			i := j*b + c
+			if t := u[i] + du[i]; t < s.lo[c] {
+				lam = min(lam, (s.lo[c]-u[i])/du[i])
+			} else if t > s.hi[c] {
+				lam = min(lam, (s.hi[c]-u[i])/du[i])
+			}
+		}
+	}
+	return max(lam, 0)
+}
+
+// trial sets ut = u + λ·du, clipped to the bounds against rounding.
+func (s *solver) trial(u, du []float64, lam float64) {
+	b := s.b
+	for j := range s.n {
+		for c := range b {
+			i := j*b + c
+			s.ut[i] = min(max(u[i]+lam*du[i], s.lo[c]), s.hi[c])
+		}
+	}
+}
+
+// accept makes the trial point the current state.
+func (s *solver) accept(u []float64) {
+	copy(u, s.ut)
+	copy(s.f, s.ft)
+	s.jacAge++
+	s.res.NewtonIterations++
+}
+
+func (s *solver) report(stage string, it int, stepNorm, lam, dt float64) {
+	if s.opt.Progress == nil {
+		return
+	}
+	s.opt.Progress(Event{Stage: stage, Iteration: it, ResidualNorm: maxAbs(s.f), StepNorm: stepNorm, Damping: lam, TimeStep: dt})
+}
+
+// newton runs at most maxIter damped Newton iterations on the current
+// system (steady or one pseudo-time step) from u, where s.f holds the
+// system residual at u. It reports whether the convergence test was met;
+// otherwise the error says why not. u and s.f always hold the last
+// accepted state.
+func (s *solver) newton(u []float64, maxIter int) (bool, error) {
+	needFresh := !s.jacValid || s.jacAge >= s.opt.MaxJacobianAge
+	haveStep := false // s.dubar is the step at u with the current factors
+	var why error = fmt.Errorf("no Newton iteration allowed")
+	for it := 0; it < maxIter; it++ {
+		fresh := false
+		if needFresh {
+			if err := s.refreshJacobian(u); err != nil {
+				return false, err
+			}
+			fresh, needFresh, haveStep = true, false, false
+		} else if s.jacAge == 0 {
+			fresh = true
+		}
+		if err := s.factor(); err != nil {
+			if fresh {
+				return false, fmt.Errorf("Newton iteration at fresh Jacobian: %w", err)
+			}
+			needFresh = true
+			continue
+		}
+		s.setWeights(u)
+		var s0 float64
+		if haveStep {
+			copy(s.du, s.dubar)
+			s0 = s.norm(s.du)
+		} else {
+			s0 = s.step(s.f, s.du)
+		}
+		if math.IsNaN(s0) || math.IsInf(s0, 0) {
+			if fresh {
+				return false, fmt.Errorf("Newton step is not finite")
+			}
+			needFresh = true
+			continue
+		}
+		if s0 == 0 {
+			s.res.StepNorm = 0
+			return true, nil
+		}
+		if s0 < 1 && s.boundLimit(u, s.du) >= 1 {
+			s.trial(u, s.du, 1)
+			if err := s.system(s.ut, s.ft); err == nil {
+				s.accept(u)
+				if !s.transient {
+					s.res.StepNorm = s0
+					s.report("newton", s.res.NewtonIterations, s0, 1, 0)
+				}
+				return true, nil
+			}
+		}
+
+		lam := min(1, s.boundLimit(u, s.du))
+		var theta float64
+		accepted := false
+		for ; lam >= minDamping; lam /= 2 {
+			s.trial(u, s.du, lam)
+			if err := s.system(s.ut, s.ft); err != nil {
+				why = fmt.Errorf("trial point with damping %g: %w", lam, err)
+			} else {
+				s1 := s.step(s.ft, s.dubar)
+				theta = s1 / s0
+				if theta <= 1-lam/4 {
+					accepted = true
+					break
+				}
+				why = fmt.Errorf("natural monotonicity test failed (contraction %.3g with damping %g)", theta, lam)
+			}
+			if !fresh {
+				break
+			}
+		}
+		if !accepted {
+			if !fresh {
+				// A Jacobian from an earlier state may point the wrong way;
+				// retry with a new one before damping further.
+				needFresh, haveStep = true, false
+				continue
+			}
+			if lam < minDamping {
+				return false, fmt.Errorf("damping fell below %g: %w", minDamping, why)
+			}
+			return false, why
+		}
+		s.accept(u)
+		if !s.transient {
+			s.res.StepNorm = s0
+			s.report("newton", s.res.NewtonIterations, s0, lam, 0)
+		}
+		haveStep = true
+		needFresh = lam < 1 || theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
+		why = fmt.Errorf("no convergence in %d Newton iterations (last step norm %.3g, contraction %.3g)", maxIter, s0, theta)
+	}
+	return false, why
+}
+
+// timeSteps takes Options.StepsPerAttempt accepted backward-Euler steps of
+// w ⊙ du/dt = −F(u) from u, adapting *dt. It fails when dt falls below
+// Options.MinTimeStep or the transient weights are invalid.
+func (s *solver) timeSteps(u []float64, dt *float64) error {
+	defer func() { s.transient = false }()
+	for taken := 0; taken < s.opt.StepsPerAttempt; {
+		copy(s.uOld, u)
+		copy(s.fOld, s.f)
+		if err := s.transientWeights(u); err != nil {
+			return err
+		}
+		for i, w := range s.w {
+			s.wdt[i] = w / *dt
+		}
+		s.transient = true
+		ok, err := s.newton(u, min(transientNewtonIterations, s.opt.MaxNewtonIterations))
+		if ok {
+			for i, c := range s.wdt {
+				s.f[i] -= c * (u[i] - s.uOld[i])
+			}
+			taken++
+			s.res.TimeSteps++
+			if s.opt.Progress != nil {
+				s.setWeights(s.uOld)
+				for i := range s.du {
+					s.du[i] = u[i] - s.uOld[i]
+				}
+				s.opt.Progress(Event{Stage: "timestep", Iteration: s.res.TimeSteps, ResidualNorm: maxAbs(s.f), StepNorm: s.norm(s.du), Damping: 1, TimeStep: *dt})
+			}
+			*dt = min(*dt*s.opt.TimeStepGrowth, s.opt.MaxTimeStep)
+			continue
+		}
+		copy(u, s.uOld)
+		copy(s.f, s.fOld)
+		if s.jacAge == 0 {
+			s.jacAge = 1 // J was evaluated at a state just discarded
+		}
+		*dt *= timeStepCut
+		if *dt < s.opt.MinTimeStep {
+			return fmt.Errorf("time step fell below the minimum %g: %w", s.opt.MinTimeStep, err)
+		}
+	}
+	return nil
+}
+
+func (s *solver) transientWeights(u []float64) error {
+	if s.tr == nil {
+		for i := range s.w {
+			s.w[i] = 1
+		}
+		return nil
+	}
+	s.tr.TransientWeights(u, s.w)
+	for i, w := range s.w {
+		if !(w >= 0) || math.IsInf(w, 0) {
+			return fmt.Errorf("transient weight at point %d, component %d is %g, want finite and ≥ 0", i/s.b, i%s.b, w)
+		}
+	}
+	return nil
+}
+
+func maxAbs(x []float64) float64 {
+	m := 0.0
+	for _, v := range x {
+		m = max(m, math.Abs(v))
+	}
+	return m
+}
