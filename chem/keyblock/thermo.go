@@ -39,6 +39,12 @@ func ReadThermo(r io.Reader, file string) ([]ThermoRecord, []chem.Problem, error
 	}
 	var p problemList
 	recs := readThermoFile(lines, file, &p)
+	// Inside a mechanism, Validate reports jumps of the species it uses.
+	for _, r := range recs {
+		if j := r.Thermo.MidpointJump(); j > thermo.MidpointJumpTolerance {
+			p.warnf(r.Origin, "thermo record %q: polynomials jump by %.2g (relative) at T mid = %g K", r.Name, j, r.Thermo.TMid)
+		}
+	}
 	probs, verr := p.result()
 	return recs, probs, verr
 }
@@ -382,9 +388,6 @@ func parseRecord(rec [4]string, nums [4]int, defaults [3]float64, pos chem.Posit
 	copy(tr.Thermo.Low[:], a[7:])
 	if !good {
 		return ThermoRecord{}, false
-	}
-	if j := tr.Thermo.MidpointJump(); j > thermo.MidpointJumpTolerance {
-		p.warnf(pos, "thermo record %q: polynomials jump by %.2g (relative) at T mid = %g K", name, j, tr.Thermo.TMid)
 	}
 	return tr, true
 }
