@@ -1,0 +1,78 @@
+package thermo_test
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+
+	"flame1d/chem/keyblock"
+	"flame1d/thermo"
+)
+
+// mechanismsDir returns the published mechanism sets kept beside the
+// repository (../shared/data/mechanisms from the repository root), or skips
+// the test when that folder is absent.
+func mechanismsDir(t testing.TB) string {
+	t.Helper()
+	dir, err := os.Getwd()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for {
+		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
+			break
+		}
+		parent := filepath.Dir(dir)
+		if parent == dir {
+			t.Skip("repository root (go.mod) not found; shared mechanism data unavailable")
+		}
+		dir = parent
+	}
+	shared := filepath.Join(dir, "..", "shared", "data", "mechanisms")
+	if _, err := os.Stat(shared); err != nil {
+		t.Skipf("shared mechanism data not found at %s: %v", shared, err)
+	}
+	return shared
+}
+
+// sharedThermo reads the thermo records of one published set.
+func sharedThermo(t testing.TB, set string) []thermo.Species {
+	t.Helper()
+	path := filepath.Join(mechanismsDir(t), set, "thermo.dat")
+	f, err := os.Open(path)
+	if err != nil {
+		t.Skipf("%s not available: %v", path, err)
+	}
+	defer f.Close()
+	recs, _, err := keyblock.ReadThermo(f, path)
+	if err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+	sp := make([]thermo.Species, len(recs))
+	for i := range recs {
+		sp[i] = recs[i].Species
+	}
+	return sp
+}
+
+func gri30Set(t testing.TB) *thermo.SpeciesSet {
+	t.Helper()
+	s, err := thermo.NewSpeciesSet(sharedThermo(t, "gri30"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+func moles(t testing.TB, s *thermo.SpeciesSet, pairs map[string]float64) []float64 {
+	t.Helper()
+	n := make([]float64, s.Len())
+	for name, v := range pairs {
+		k := s.Index(name)
+		if k < 0 {
+			t.Fatalf("no species %s", name)
+		}
+		n[k] = v
+	}
+	return n
+}
