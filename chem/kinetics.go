@@ -1,0 +1,569 @@
+package chem
+
+import (
+	"fmt"
+	"math"
+
+	"flame1d/thermo"
+)
+
+// Kinetics evaluates reaction rates for one mechanism: forward and reverse
+// rate constants, rates of progress, net molar production rates, heat
+// release and their derivatives.
+//
+// A Kinetics is built once by NewKinetics. It is not safe for concurrent use:
+// it keeps work arrays and a cache of the temperature-dependent quantities
+// (rate constants, equilibrium constants, species g/RT and h/RT) of the last
+// temperature seen, so that repeated calls at one temperature with different
+// concentrations skip the exponentials. Clone gives an independent evaluator
+// per goroutine; clones share the immutable reaction data.
+//
+// Every method takes the temperature T [K] and the molar concentrations C
+// [mol/m^3], one per species. T must be positive and finite. Where a rate
+// depends on pressure (pressure tables and Chebyshev series) the pressure is
+// the ideal-gas value P = (sum_k C_k) R T [Pa].
+//
+// Conventions, for all forms:
+//
+//   - Arrhenius k = A T^b exp(-E/(R T)) is evaluated as
+//     sign(A) exp(ln|A| + b ln T - E/(R T)), so extreme published parameters
+//     (A = 1.6e88 with b = -21) neither overflow nor lose digits in the
+//     intermediate T^b; negative A is kept (duplicate steps whose sum is the
+//     physical rate), A = 0 gives k = 0.
+//   - The forward rate of progress is kf [M] prod_k C_k^a_k; the exponent a_k
+//     is the reactant's stoichiometric coefficient unless Orders gives it;
+//     reverse likewise with the products and ReverseOrders. [M] is present
+//     only for the ThreeBody form.
+//   - Integer exponents are applied by repeated multiplication, so a slightly
+//     negative concentration (a Newton iterate) gives a small, smooth, signed
+//     rate. For non-integer positive exponents, negative concentrations are
+//     clipped to 0 (C^a is not real for C < 0). Negative exponents use
+//     max(C, 1e-30 mol/m^3) so that a vanishing species gives a large but
+//     finite rate instead of +Inf.
+//   - The reverse rate constant is kr = kf/Kc with Kc the equilibrium
+//     constant in concentration units (EquilibriumConstants), unless the
+//     reaction gives ReverseRate, which is then used as kr for every form
+//     (an Arrhenius function of T only; it is not modulated by falloff or
+//     pressure).
+type Kinetics struct {
+	m *kineticsModel // immutable, shared between clones
+	w kineticsWork   // per-instance work arrays and per-T cache
+}
+
+// arrhenius is one Arrhenius set prepared for evaluation:
+// k = sign exp(lnA + b ln T - eR/T).
+type arrhenius struct {
+	lnA, b, eR, sign float64 // eR = E/R in K
+}
+
+func newArrhenius(a Arrhenius) (arrhenius, error) {
+	if !finite(a.A) || !finite(a.B) || !finite(a.E) {
+		return arrhenius{}, fmt.Errorf("Arrhenius parameters A=%g b=%g E=%g J/mol must be finite", a.A, a.B, a.E)
+	}
+	switch {
+	case a.A > 0:
+		return arrhenius{lnA: math.Log(a.A), b: a.B, eR: a.E / thermo.GasConstant, sign: 1}, nil
+	case a.A < 0:
+		return arrhenius{lnA: math.Log(-a.A), b: a.B, eR: a.E / thermo.GasConstant, sign: -1}, nil
+	}
+	return arrhenius{}, nil // A = 0: k = 0 at every T
+}
+
+// eval returns k(T) and dk/dT, with dk/dT = k (b + E/(RT))/T.
+func (a *arrhenius) eval(lnT, invT float64) (k, dkdT float64) {
+	k = a.sign * math.Exp(a.lnA+a.b*lnT-a.eR*invT)
+	return k, k * (a.b + a.eR*invT) * invT
+}
+
+// logAbs returns ln|k(T)| (meaningful only when sign != 0).
+func (a *arrhenius) logAbs(lnT, invT float64) float64 {
+	return a.lnA + a.b*lnT - a.eR*invT
+}
+
+type reverseKind uint8
+
+const (
+	irreversible reverseKind = iota
+	reverseFromKc
+	reverseExplicit
+)
+
+// reactionData is a reaction prepared for evaluation. Ranges index the flat
+// slices of kineticsModel.
+type reactionData struct {
+	form     RateForm
+	reverse  reverseKind
+	thirdBdy int32 // index into the third-body sets, -1 when none is used
+	sub      int32 // index into falloffs, plogs or chebs, by form
+	rate     arrhenius
+	revRate  arrhenius
+	fBeg     int32 // forward concentration factors [fBeg, fEnd)
+	fEnd     int32
+	rBeg     int32 // reverse concentration factors [rBeg, rEnd)
+	rEnd     int32
+	nuBeg    int32 // net stoichiometry (products minus reactants) [nuBeg, nuEnd)
+	nuEnd    int32
+	dnu      float64 // sum of net stoichiometric coefficients
+}
+
+type broadening uint8
+
+const (
+	lindemann broadening = iota
+	troeForm
+	sriForm
+)
+
+type falloffData struct {
+	low, high arrhenius
+	chemAct   bool
+	kind      broadening
+	// Troe
+	a, t3, t1, t2 float64
+	hasT3, hasT1  bool // false when the author wrote T3 = 0 or T1 = 0: that term is dropped
+	hasT2         bool
+	// SRI
+	sa, sb, sc, lnSD, se float64
+	hasSC                bool // false when c = 0: the exp(-T/c) term is dropped
+}
+
+type plogData struct {
+	lvlBeg, lvlEnd int32 // distinct pressures [lvlBeg, lvlEnd)
+}
+
+type chebData struct {
+	nT, nP   int
+	coefBeg  int // Coeffs[i][j] at coef[coefBeg + i*nP + j]
+	cacheBeg int // per-T contraction a_j(T) at chebA[cacheBeg + j]
+	invTMin  float64
+	invTMax  float64
+	lgPMin   float64 // log10 PMin (Pa)
+	lgPMax   float64
+	dPrdlnP  float64 // 2/(ln PMax - ln PMin)
+}
+
+// kineticsModel is the immutable, shareable part of a Kinetics.
+type kineticsModel struct {
+	nsp    int
+	thermo []thermo.NASA7
+	rx     []reactionData
+
+	facSp  []int32   // species of each concentration factor
+	facOrd []float64 // its exponent; 1 for the repeated entries of integer orders
+
+	nuSp  []int32
+	nuVal []float64
+
+	tbDefault []float64
+	tbBeg     []int32 // set t has entries [tbBeg[t], tbBeg[t+1])
+	tbSp      []int32
+	tbDelta   []float64 // efficiency minus default
+
+	falloffs []falloffData
+
+	plogs     []plogData
+	lvlLnP    []float64
+	lvlSetBeg []int32 // level l has sets [lvlSetBeg[l], lvlSetBeg[l+1])
+	sets      []arrhenius
+
+	chebs      []chebData
+	chebCoef   []float64
+	chebCache  int // total a_j entries
+	maxChebLen int // longest T or P series
+
+	maxSparse int // largest number of sparse derivative entries of one reaction
+}
+
+// kineticsWork holds the per-instance arrays.
+type kineticsWork struct {
+	lastT     float64 // temperature of the cached per-T quantities; NaN when empty
+	lnT, invT float64
+	gRT, hRT  []float64
+	lnKc      []float64
+	invKc     []float64 // exp(-lnKc), exponent clamped to ±maxExpArg
+	dlnKcdT   []float64
+	kfT, dkfT []float64 // Arrhenius part of simple forms
+	krT, dkrT []float64 // reverse: simple forms via Kc, or explicit
+	foT       []float64 // per falloff, foStride entries: see falloffTemperature
+	lvlK      []float64 // per pressure level: summed k, dk/dT, ln k (k > 0 only)
+	chebA     []float64 // per Chebyshev: a_j(T), da_j/dT (two blocks)
+	phi, dphi []float64 // Chebyshev polynomial scratch
+	ctot, lnP float64
+	thirdBody []float64 // [M] per set
+	kf, kr    []float64 // final rate constants at (T, C)
+	dkfdT     []float64 // total derivatives at constant C
+	dkrdT     []float64
+	dkfdX     []float64 // falloff: dkf/d[M]; pressure forms: dkf/d ln P
+	facVal    []float64 // factor values C^a
+	fwd, rev  []float64
+	net       []float64
+	wdot      []float64
+	sparseSp  []int32
+	sparseVal []float64
+}
+
+// Numerical guards; each keeps a result finite where the formula is not.
+const (
+	// maxExpArg bounds |ln Kc| when 1/Kc multiplies a rate constant, so that
+	// the product can neither overflow nor form 0*Inf. A reaction whose
+	// equilibrium constant exceeds e^700 ~ 1e304 has a reverse rate that is
+	// negligible next to its forward rate (and vice versa).
+	maxExpArg = 700.0
+	// prFloor is the smallest reduced pressure passed to the broadening
+	// functions: log10 Pr stays finite at [M] = 0. F is frozen below it, a
+	// state that needs k0 [M]/k_inf < 1e-100 and does not occur in flames.
+	prFloor = 1e-100
+	// positiveFloor replaces a non-positive Fcent, SRI base or Chebyshev
+	// argument of a logarithm (only reachable with unphysical parameters).
+	positiveFloor = 1e-300
+	// negOrderFloor is the smallest concentration [mol/m^3] raised to a
+	// negative exponent.
+	negOrderFloor = 1e-30
+	// derivFloor is the smallest concentration [mol/m^3] at which the
+	// derivative a C^(a-1) of a fractional power 0 < a < 1 is evaluated; it
+	// is singular at C = 0.
+	derivFloor = 1e-100
+)
+
+// lnStdOverR is ln(P°/R) with P° = thermo.StandardPressure, so that
+// ln(P°/(R T)) = lnStdOverR - ln T.
+var lnStdOverR = math.Log(thermo.StandardPressure / thermo.GasConstant)
+
+func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+
+// NewKinetics prepares the rate evaluation of m. It validates the mechanism
+// (Mechanism.Validate) and the rate parameters it needs: finite Arrhenius
+// parameters, positive A in falloff limits, positive SRI d, positive sorted
+// table pressures, rectangular Chebyshev coefficients.
+func NewKinetics(m *Mechanism) (*Kinetics, error) {
+	if m == nil {
+		return nil, fmt.Errorf("kinetics: nil mechanism")
+	}
+	if _, err := m.Validate(); err != nil {
+		return nil, fmt.Errorf("kinetics for mechanism %q: %w", m.Name, err)
+	}
+	km := &kineticsModel{nsp: len(m.Species), tbBeg: []int32{0}, lvlSetBeg: []int32{0}}
+	km.thermo = make([]thermo.NASA7, km.nsp)
+	for i := range m.Species {
+		km.thermo[i] = m.Species[i].Thermo
+	}
+	km.rx = make([]reactionData, len(m.Reactions))
+	for i := range m.Reactions {
+		if err := km.addReaction(&m.Reactions[i], &km.rx[i]); err != nil {
+			return nil, fmt.Errorf("kinetics: reaction %d (%s): %w", i+1, m.Reactions[i].Equation, err)
+		}
+	}
+	k := &Kinetics{m: km}
+	k.w = km.newWork()
+	return k, nil
+}
+
+// Clone returns an evaluator sharing k's immutable data with its own work
+// arrays, for use in another goroutine.
+func (k *Kinetics) Clone() *Kinetics {
+	return &Kinetics{m: k.m, w: k.m.newWork()}
+}
+
+// NumSpecies returns the number of species (length of C and wdot).
+func (k *Kinetics) NumSpecies() int { return k.m.nsp }
+
+// NumReactions returns the number of reactions.
+func (k *Kinetics) NumReactions() int { return len(k.m.rx) }
+
+func (km *kineticsModel) newWork() kineticsWork {
+	n, K := len(km.rx), km.nsp
+	f := func(n int) []float64 { return make([]float64, n) }
+	return kineticsWork{
+		lastT: math.NaN(),
+		gRT:   f(K), hRT: f(K),
+		lnKc: f(n), invKc: f(n), dlnKcdT: f(n),
+		kfT: f(n), dkfT: f(n), krT: f(n), dkrT: f(n),
+		foT:       f(foStride * len(km.falloffs)),
+		lvlK:      f(3 * len(km.lvlLnP)),
+		chebA:     f(2 * km.chebCache),
+		phi:       f(km.maxChebLen),
+		dphi:      f(km.maxChebLen),
+		thirdBody: f(len(km.tbDefault)),
+		kf:        f(n), kr: f(n), dkfdT: f(n), dkrdT: f(n), dkfdX: f(n),
+		facVal: f(len(km.facSp)),
+		fwd:    f(n), rev: f(n), net: f(n),
+		wdot:      f(K),
+		sparseSp:  make([]int32, km.maxSparse),
+		sparseVal: f(km.maxSparse),
+	}
+}
+
+// checkLen panics on a programming error: a slice shorter than the model
+// needs. (Lengths are fixed by the mechanism, not by user input.)
+func checkLen(name string, got, want int) {
+	if got < want {
+		panic(fmt.Sprintf("chem.Kinetics: len(%s) = %d, need %d", name, got, want))
+	}
+}
+
+// NetProductionRates writes wdot_k = sum_r nu_kr q_r [mol/(m^3 s)], the net
+// molar production rate of each species at (T, C); q_r is the net rate of
+// progress (RatesOfProgress).
+func (k *Kinetics) NetProductionRates(T float64, C, wdot []float64) {
+	K := k.m.nsp
+	checkLen("C", len(C), K)
+	checkLen("wdot", len(wdot), K)
+	k.update(T, C)
+	k.progress(C)
+	k.accumulate(wdot[:K])
+}
+
+// RatesOfProgress writes, per reaction, the forward rate of progress
+// kf [M] prod C^a, the reverse rate kr [M] prod C^b and their difference
+// [mol/(m^3 s)]. [M] is present for the ThreeBody form only. Irreversible
+// reactions have reverse = 0.
+func (k *Kinetics) RatesOfProgress(T float64, C, forward, reverse, net []float64) {
+	n := len(k.m.rx)
+	checkLen("C", len(C), k.m.nsp)
+	checkLen("forward", len(forward), n)
+	checkLen("reverse", len(reverse), n)
+	checkLen("net", len(net), n)
+	k.update(T, C)
+	k.progress(C)
+	copy(forward, k.w.fwd)
+	copy(reverse, k.w.rev)
+	copy(net, k.w.net)
+}
+
+// RateConstants writes the forward and reverse rate constants at (T, C), in
+// SI units (m^3/mol)^(n-1)/s for the order n of the mass-action product.
+// Included: the Arrhenius expression, for Falloff and ChemicallyActivated the
+// whole pressure dependence (Pr, hence [M], and the broadening F), for
+// PressureTable and Chebyshev the value at P = (sum C) R T. Excluded: the
+// third-body concentration [M] of the ThreeBody form, which multiplies the
+// rate of progress. kr is kf/Kc, or the explicit ReverseRate, or 0 for
+// irreversible reactions.
+func (k *Kinetics) RateConstants(T float64, C, kf, kr []float64) {
+	n := len(k.m.rx)
+	checkLen("C", len(C), k.m.nsp)
+	checkLen("kf", len(kf), n)
+	checkLen("kr", len(kr), n)
+	k.update(T, C)
+	copy(kf, k.w.kf)
+	copy(kr, k.w.kr)
+}
+
+// EquilibriumConstants writes, for every reaction (reversible or not), the
+// equilibrium constant in concentration units
+//
+//	Kc = exp(-sum_k nu_k g°_k/(R T)) (P°/(R T))^Δν,  Δν = sum_k nu_k,
+//
+// (SI: (mol/m^3)^Δν), with nu_k the net stoichiometric coefficients (products
+// minus reactants), g°_k from the NASA-7 polynomials and P° =
+// thermo.StandardPressure. A value beyond the float64 range is returned as
+// +Inf or 0.
+func (k *Kinetics) EquilibriumConstants(T float64, Kc []float64) {
+	checkLen("Kc", len(Kc), len(k.m.rx))
+	k.setTemperature(T)
+	for i, v := range k.w.lnKc {
+		Kc[i] = math.Exp(v)
+	}
+}
+
+// HeatReleaseRate returns the volumetric heat release rate
+// -sum_k h_k(T) wdot_k [W/m^3], h_k the molar enthalpy (NASA-7, including
+// the enthalpy of formation). Positive in an exothermic flame.
+func (k *Kinetics) HeatReleaseRate(T float64, C []float64) float64 {
+	k.NetProductionRates(T, C, k.w.wdot)
+	s := 0.0
+	for i, h := range k.w.hRT {
+		s += h * k.w.wdot[i]
+	}
+	return -s * thermo.GasConstant * T
+}
+
+// update brings the per-T cache to T and computes the rate constants at
+// (T, C) together with their derivatives.
+func (k *Kinetics) update(T float64, C []float64) {
+	k.setTemperature(T)
+	m, w := k.m, &k.w
+	ctot := 0.0
+	for _, c := range C[:m.nsp] {
+		ctot += c
+	}
+	w.ctot = ctot
+	if P := ctot * thermo.GasConstant * T; P > 0 {
+		w.lnP = math.Log(P)
+	} else {
+		w.lnP = math.Inf(-1) // below every table: the lowest-pressure data apply
+	}
+	for t, def := range m.tbDefault {
+		s := def * ctot
+		for e := m.tbBeg[t]; e < m.tbBeg[t+1]; e++ {
+			s += m.tbDelta[e] * C[m.tbSp[e]]
+		}
+		w.thirdBody[t] = s
+	}
+	for i := range m.rx {
+		r := &m.rx[i]
+		switch r.form {
+		case Elementary, ThreeBody:
+			w.kf[i], w.dkfdT[i], w.dkfdX[i] = w.kfT[i], w.dkfT[i], 0
+		case Falloff, ChemicallyActivated:
+			k.falloffRate(i, r)
+		case PressureTable:
+			k.tableRate(i, r)
+		case Chebyshev:
+			k.chebyshevRate(i, r)
+		}
+		switch {
+		case r.reverse == reverseExplicit || (r.reverse == reverseFromKc && (r.form == Elementary || r.form == ThreeBody)):
+			w.kr[i], w.dkrdT[i] = w.krT[i], w.dkrT[i]
+		case r.reverse == reverseFromKc:
+			kr := w.kf[i] * w.invKc[i]
+			w.kr[i] = kr
+			w.dkrdT[i] = w.dkfdT[i]*w.invKc[i] - kr*w.dlnKcdT[i]
+		default:
+			w.kr[i], w.dkrdT[i] = 0, 0
+		}
+	}
+}
+
+// setTemperature fills the per-T cache unless it already holds T.
+func (k *Kinetics) setTemperature(T float64) {
+	w := &k.w
+	if T == w.lastT {
+		return
+	}
+	m := k.m
+	lnT, invT := math.Log(T), 1/T
+	w.lnT, w.invT = lnT, invT
+	for i := range m.thermo {
+		p := &m.thermo[i]
+		h := p.HRT(T)
+		w.hRT[i] = h
+		w.gRT[i] = h - p.SR(T)
+	}
+	lnStd := lnStdOverR - lnT
+	for i := range m.rx {
+		r := &m.rx[i]
+		sg, sh := 0.0, 0.0
+		for e := r.nuBeg; e < r.nuEnd; e++ {
+			sp, nu := m.nuSp[e], m.nuVal[e]
+			sg += nu * w.gRT[sp]
+			sh += nu * w.hRT[sp]
+		}
+		lnKc := -sg + r.dnu*lnStd
+		w.lnKc[i] = lnKc
+		w.dlnKcdT[i] = (sh - r.dnu) * invT
+		w.invKc[i] = math.Exp(math.Max(-maxExpArg, math.Min(maxExpArg, -lnKc)))
+		switch r.form {
+		case Elementary, ThreeBody:
+			w.kfT[i], w.dkfT[i] = r.rate.eval(lnT, invT)
+			if r.reverse == reverseFromKc {
+				// kr = kf/Kc in logarithms: no overflow of 1/Kc.
+				kr := r.rate.sign * math.Exp(r.rate.logAbs(lnT, invT)-lnKc)
+				w.krT[i] = kr
+				w.dkrT[i] = kr * ((r.rate.b+r.rate.eR*invT)*invT - w.dlnKcdT[i])
+			}
+		}
+		if r.reverse == reverseExplicit {
+			w.krT[i], w.dkrT[i] = r.revRate.eval(lnT, invT)
+		}
+	}
+	for f := range m.falloffs {
+		m.falloffs[f].temperature(T, lnT, invT, w.foT[foStride*f:foStride*(f+1)])
+	}
+	for l := range m.lvlLnP {
+		s, ds := 0.0, 0.0
+		for e := m.lvlSetBeg[l]; e < m.lvlSetBeg[l+1]; e++ {
+			v, dv := m.sets[e].eval(lnT, invT)
+			s += v
+			ds += dv
+		}
+		lk := 0.0 // read only when s > 0
+		if s > 0 {
+			lk = math.Log(s)
+		}
+		w.lvlK[3*l], w.lvlK[3*l+1], w.lvlK[3*l+2] = s, ds, lk
+	}
+	for c := range m.chebs {
+		k.chebyshevTemperature(&m.chebs[c], invT)
+	}
+	w.lastT = T
+}
+
+// powFactor returns C^a for a non-unit exponent a, with the guards of the
+// Kinetics doc: C clipped to 0 for a > 0, floored at negOrderFloor for a < 0.
+func powFactor(c, a float64) float64 {
+	if a > 0 {
+		if c <= 0 {
+			return 0
+		}
+		return math.Pow(c, a)
+	}
+	return math.Pow(math.Max(c, negOrderFloor), a)
+}
+
+// powFactorDeriv returns d(powFactor(c, a))/dc. It is 0 where powFactor is
+// flat (clipped or floored); for 0 < a < 1 it is evaluated at
+// max(C, derivFloor), being singular at C = 0.
+func powFactorDeriv(c, a float64) float64 {
+	if a > 0 {
+		if c <= 0 {
+			return 0
+		}
+		if a < 1 {
+			c = math.Max(c, derivFloor)
+		}
+		return a * math.Pow(c, a-1)
+	}
+	if c <= negOrderFloor {
+		return 0
+	}
+	return a * math.Pow(c, a-1)
+}
+
+// product returns prod_e C^a over the factor range [beg, end) and stores
+// each factor's value in facVal.
+func (k *Kinetics) product(C []float64, beg, end int32) float64 {
+	m, w := k.m, &k.w
+	p := 1.0
+	for e := beg; e < end; e++ {
+		c, a := C[m.facSp[e]], m.facOrd[e]
+		if a != 1 {
+			c = powFactor(c, a)
+		}
+		w.facVal[e] = c
+		p *= c
+	}
+	return p
+}
+
+// progress computes the forward, reverse and net rates of progress from the
+// rate constants of the last update.
+func (k *Kinetics) progress(C []float64) {
+	m, w := k.m, &k.w
+	for i := range m.rx {
+		r := &m.rx[i]
+		f := w.kf[i] * k.product(C, r.fBeg, r.fEnd)
+		b := 0.0
+		if r.reverse != irreversible {
+			b = w.kr[i] * k.product(C, r.rBeg, r.rEnd)
+		}
+		if r.form == ThreeBody {
+			M := w.thirdBody[r.thirdBdy]
+			f *= M
+			b *= M
+		}
+		w.fwd[i], w.rev[i], w.net[i] = f, b, f-b
+	}
+}
+
+// accumulate writes wdot = sum_r nu_r q_r from the last progress.
+func (k *Kinetics) accumulate(wdot []float64) {
+	m, w := k.m, &k.w
+	clear(wdot)
+	for i := range m.rx {
+		r := &m.rx[i]
+		q := w.net[i]
+		for e := r.nuBeg; e < r.nuEnd; e++ {
+			wdot[m.nuSp[e]] += m.nuVal[e] * q
+		}
+	}
+}
