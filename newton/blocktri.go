@@ -3,6 +3,8 @@ package newton
 import (
 	"fmt"
 	"math"
+
+	"gonum.org/v1/gonum/floats"
 )
 
 // BlockTridiagonal is a square matrix of N×N blocks, each B×B, with non-zero
@@ -325,18 +327,10 @@ func (m *BlockTridiagonal) MulVec(x, y []float64) {
 
 // axpy sets y += a·x; len(x) must be at least len(y).
 func axpy(a float64, x, y []float64) {
-	x = x[:len(y)]
-	for i := range y {
-		y[i] += a * x[i]
-	}
+	floats.AddScaled(y, a, x[:len(y)])
 }
 
 // dot returns Σ x_i·y_i; len(y) must be at least len(x).
 func dot(x, y []float64) float64 {
-	y = y[:len(x)]
-	s := 0.0
-	for i, v := range x {
-		s += v * y[i]
-	}
-	return s
+	return floats.Dot(x, y[:len(x)])
 }

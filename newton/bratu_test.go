@@ -5,11 +5,11 @@ import (
 	"testing"
 )
 
-// bratu is the Bratu boundary-value problem u'' + λ·e^u = 0, u(0) = u(1) = 0,
+// bratu is the Bratu boundary-value problem u” + λ·e^u = 0, u(0) = u(1) = 0,
 // discretised by the three-point formula on a (possibly non-uniform) grid
 // x_0 = 0 < … < x_{N−1} = 1 with the boundary values as algebraic
-// equations. The residual is written F = −(u'' + λe^u) so that the
-// pseudo-transient form du/dt = u'' + λe^u is a stable diffusion problem.
+// equations. The residual is written F = −(u” + λe^u) so that the
+// pseudo-transient form du/dt = u” + λe^u is a stable diffusion problem.
 type bratu struct {
 	lambda float64
 	x      []float64

@@ -298,6 +298,8 @@ type solver struct {
 	factored bool // J's factors match its current values
 	jacAge   int  // accepted steps since J was evaluated
 
+	steadySteps int // accepted steady Newton steps, for Event.Iteration
+
 	transient bool
 	applied   []float64 // diagonal shift currently added to J.Diag
 	wdt       []float64 // w/dt of the current pseudo-time step
@@ -481,21 +483,28 @@ func (s *solver) norm(x []float64) float64 {
 	return m
 }
 
-// boundLimit returns the largest λ ≤ 1 with u + λ·du inside the bounds.
-func (s *solver) boundLimit(u, du []float64) float64 {
-	lam := 1.0
+// boundLimit returns the largest λ ≤ 1 with u + λ·du inside the bounds and
+// the index of the unknown that limits it (−1 if none does).
+func (s *solver) boundLimit(u, du []float64) (float64, int) {
+	lam, at := 1.0, -1
 	b := s.b
 	for j := range s.n {
 		for c := range b {
 			i := j*b + c
+			var l float64
 			if t := u[i] + du[i]; t < s.lo[c] {
-				lam = min(lam, (s.lo[c]-u[i])/du[i])
+				l = (s.lo[c] - u[i]) / du[i]
 			} else if t > s.hi[c] {
-				lam = min(lam, (s.hi[c]-u[i])/du[i])
+				l = (s.hi[c] - u[i]) / du[i]
+			} else {
+				continue
+			}
+			if l < lam {
+				lam, at = max(l, 0), i
 			}
 		}
 	}
-	return max(lam, 0)
+	return lam, at
 }
 
 // trial sets ut = u + λ·du, clipped to the bounds against rounding.
@@ -517,11 +526,44 @@ func (s *solver) accept(u []float64) {
 	s.res.NewtonIterations++
 }
 
-func (s *solver) report(stage string, it int, stepNorm, lam, dt float64) {
+func (s *solver) report(stepNorm, lam float64) {
 	if s.opt.Progress == nil {
 		return
 	}
-	s.opt.Progress(Event{Stage: stage, Iteration: it, ResidualNorm: maxAbs(s.f), StepNorm: stepNorm, Damping: lam, TimeStep: dt})
+	s.opt.Progress(Event{Stage: "newton", Iteration: s.steadySteps, ResidualNorm: maxAbs(s.f), StepNorm: stepNorm, Damping: lam})
+}
+
+// newtonFailure records why a Newton attempt stopped; it is turned into an
+// error only when the attempt ends, so the iteration itself formats nothing.
+type newtonFailure struct {
+	kind     int
+	lam      float64 // damping of the last trial
+	theta    float64 // contraction of the last trial
+	s0       float64 // norm of the last undamped step
+	at       int     // unknown limiting the step at a bound
+	trialErr error   // residual error at the last trial point
+}
+
+const (
+	failNone = iota
+	failTrial
+	failMonotonicity
+	failBound
+	failIterations
+)
+
+func (s *solver) failure(nf *newtonFailure, maxIter int) error {
+	switch nf.kind {
+	case failTrial:
+		return fmt.Errorf("residual failed at every trial point down to damping %g: %w", nf.lam, nf.trialErr)
+	case failMonotonicity:
+		return fmt.Errorf("natural monotonicity test failed down to damping %g (contraction %.3g)", nf.lam, nf.theta)
+	case failBound:
+		return fmt.Errorf("bounds allow only damping %.3g (point %d, component %d at its bound)", nf.lam, nf.at/s.b, nf.at%s.b)
+	case failIterations:
+		return fmt.Errorf("no convergence in %d Newton iterations (last step norm %.3g, contraction %.3g)", maxIter, nf.s0, nf.theta)
+	}
+	return fmt.Errorf("no Newton iteration allowed")
 }
 
 // newton runs at most maxIter damped Newton iterations on the current
@@ -532,20 +574,18 @@ func (s *solver) report(stage string, it int, stepNorm, lam, dt float64) {
 func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 	needFresh := !s.jacValid || s.jacAge >= s.opt.MaxJacobianAge
 	haveStep := false // s.dubar is the step at u with the current factors
-	var why error = fmt.Errorf("no Newton iteration allowed")
+	var nf newtonFailure
 	for it := 0; it < maxIter; it++ {
-		fresh := false
 		if needFresh {
 			if err := s.refreshJacobian(u); err != nil {
 				return false, err
 			}
-			fresh, needFresh, haveStep = true, false, false
-		} else if s.jacAge == 0 {
-			fresh = true
+			needFresh, haveStep = false, false
 		}
+		fresh := s.jacAge == 0 // J was evaluated at u
 		if err := s.factor(); err != nil {
 			if fresh {
-				return false, fmt.Errorf("Newton iteration at fresh Jacobian: %w", err)
+				return false, err
 			}
 			needFresh = true
 			continue
@@ -560,42 +600,42 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 		}
 		if math.IsNaN(s0) || math.IsInf(s0, 0) {
 			if fresh {
-				return false, fmt.Errorf("Newton step is not finite")
+				return false, fmt.Errorf("Newton step is %g", s0)
 			}
 			needFresh = true
 			continue
 		}
 		if s0 == 0 {
-			s.res.StepNorm = 0
+			if !s.transient {
+				s.res.StepNorm = 0
+			}
 			return true, nil
 		}
-		if s0 < 1 && s.boundLimit(u, s.du) >= 1 {
+		lmax, at := s.boundLimit(u, s.du)
+		if s0 < 1 && lmax >= 1 {
 			s.trial(u, s.du, 1)
 			if err := s.system(s.ut, s.ft); err == nil {
 				s.accept(u)
-				if !s.transient {
-					s.res.StepNorm = s0
-					s.report("newton", s.res.NewtonIterations, s0, 1, 0)
-				}
+				s.converged(s0)
 				return true, nil
 			}
 		}
 
-		lam := min(1, s.boundLimit(u, s.du))
-		var theta float64
+		lam := min(1, lmax)
+		nf = newtonFailure{kind: failBound, lam: lam, at: at}
 		accepted := false
 		for ; lam >= minDamping; lam /= 2 {
 			s.trial(u, s.du, lam)
 			if err := s.system(s.ut, s.ft); err != nil {
-				why = fmt.Errorf("trial point with damping %g: %w", lam, err)
+				nf = newtonFailure{kind: failTrial, lam: lam, trialErr: err}
 			} else {
 				s1 := s.step(s.ft, s.dubar)
-				theta = s1 / s0
-				if theta <= 1-lam/4 {
+				nf.theta = s1 / s0
+				if nf.theta <= 1-lam/4 {
 					accepted = true
 					break
 				}
-				why = fmt.Errorf("natural monotonicity test failed (contraction %.3g with damping %g)", theta, lam)
+				nf = newtonFailure{kind: failMonotonicity, lam: lam, theta: s1 / s0}
 			}
 			if !fresh {
 				break
@@ -608,21 +648,29 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 				needFresh, haveStep = true, false
 				continue
 			}
-			if lam < minDamping {
-				return false, fmt.Errorf("damping fell below %g: %w", minDamping, why)
-			}
-			return false, why
+			return false, s.failure(&nf, maxIter)
 		}
 		s.accept(u)
 		if !s.transient {
+			s.steadySteps++
 			s.res.StepNorm = s0
-			s.report("newton", s.res.NewtonIterations, s0, lam, 0)
+			s.report(s0, lam)
 		}
 		haveStep = true
-		needFresh = lam < 1 || theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
-		why = fmt.Errorf("no convergence in %d Newton iterations (last step norm %.3g, contraction %.3g)", maxIter, s0, theta)
+		needFresh = lam < 1 || nf.theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
+		nf = newtonFailure{kind: failIterations, s0: s0, theta: nf.theta}
 	}
-	return false, why
+	return false, s.failure(&nf, maxIter)
+}
+
+// converged records the final step of a successful steady Newton attempt.
+func (s *solver) converged(s0 float64) {
+	if s.transient {
+		return
+	}
+	s.steadySteps++
+	s.res.StepNorm = s0
+	s.report(s0, 1)
 }
 
 // timeSteps takes Options.StepsPerAttempt accepted backward-Euler steps of

@@ -1,0 +1,369 @@
+package newton
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+)
+
+// arctanChain is F_j = (atan(u_j), atan(v_j − 1)) + κ·(2x_j − x_{j−1} − x_{j+1})
+// for both components x ∈ {u, v}, with zero ghost values beyond the ends for
+// u and one for v. F is the gradient of a strictly convex function, so its
+// only root is u = 0, v = 1. For κ small the problem is nearly the scalar
+// equation atan(x) = 0, on which undamped Newton diverges from |x_0| above
+// about 1.39 (Kelley, "Solving Nonlinear Equations with Newton's Method",
+// SIAM 2003, §1.7.1, from memory).
+type arctanChain struct {
+	n     int
+	kappa float64
+}
+
+func (p *arctanChain) Size() (int, int) { return p.n, 2 }
+
+func (p *arctanChain) Residual(x, f []float64) error {
+	ghost := [2]float64{0, 1}
+	at := func(j, c int) float64 {
+		if j < 0 || j >= p.n {
+			return ghost[c]
+		}
+		return x[j*2+c]
+	}
+	for j := range p.n {
+		f[j*2] = math.Atan(at(j, 0)) + p.kappa*(2*at(j, 0)-at(j-1, 0)-at(j+1, 0))
+		f[j*2+1] = math.Atan(at(j, 1)-1) + p.kappa*(2*at(j, 1)-at(j-1, 1)-at(j+1, 1))
+	}
+	return nil
+}
+
+// TestDampingRescuesDivergentNewton shows that the undamped Newton iteration
+// on arctanChain from x_0 = 2 diverges, and that Solve's damped iteration
+// reaches the root without falling back to time stepping.
+func TestDampingRescuesDivergentNewton(t *testing.T) {
+	p := &arctanChain{n: 12, kappa: 0.01}
+	start := func() []float64 {
+		x := make([]float64, 24)
+		for j := range 12 {
+			x[j*2], x[j*2+1] = 2, -1.5
+		}
+		return x
+	}
+
+	// Undamped Newton, built from the package's tested pieces.
+	x := start()
+	f := make([]float64, 24)
+	J := NewBlockTridiagonal(12, 2)
+	for range 4 {
+		if err := p.Residual(x, f); err != nil {
+			t.Fatal(err)
+		}
+		if err := FiniteDifferenceJacobian(p.Residual, x, f, J, fdPerturbation, fdPerturbation); err != nil {
+			t.Fatal(err)
+		}
+		if err := J.Factor(); err != nil {
+			t.Fatal(err)
+		}
+		for i := range f {
+			f[i] = -f[i]
+		}
+		J.Solve(f)
+		for i := range x {
+			x[i] += f[i]
+		}
+	}
+	if m := maxAbs(x); m < 100 {
+		t.Fatalf("undamped Newton: max |x| = %.3g after 4 steps; expected divergence (> 100), so the test problem does not need damping", m)
+	}
+
+	x = start()
+	opt := DefaultOptions(2)
+	opt.MaxTimeStepAttempts = 0
+	minDampingSeen := 1.0
+	opt.Progress = func(e Event) { minDampingSeen = min(minDampingSeen, e.Damping) }
+	res, err := Solve(p, x, opt)
+	if err != nil {
+		t.Fatalf("damped Newton: %v", err)
+	}
+	if minDampingSeen >= 1 {
+		t.Error("damped Newton converged without damping; the test shows nothing")
+	}
+	for j := range 12 {
+		// Converged to RelTol 1e-4·|x| + AbsTol 1e-9, then one more step.
+		if math.Abs(x[j*2]) > 1e-8 || math.Abs(x[j*2+1]-1) > 1e-4 {
+			t.Errorf("point %d: (%.3g, %.6f), want (0, 1)", j, x[j*2], x[j*2+1])
+		}
+	}
+	if res.TimeSteps != 0 || !res.Converged {
+		t.Errorf("TimeSteps = %d, Converged = %v; want 0 and true", res.TimeSteps, res.Converged)
+	}
+}
+
+// cubicChain is F_j = (u_j³ − 3u_j + 3 + κ·(2u_j − u_{j−1} − u_{j+1}), v_j − u_j²)
+// with reflecting ends (u_{−1} = u_0, u_N = u_{N−1}). Its root is uniform,
+// u = r, v = r², r = −(∛((3+√5)/2) + ∛((3−√5)/2)) ≈ −2.1038 the real root
+// of u³ − 3u + 3 by Cardano's formula. From u > 1, Newton is drawn to the
+// local minimum of |F| at u = 1 where ∂F/∂u = 0 and stalls; the flow
+// du/dt = −F crosses it since F > 0 for all u > r. Component v is
+// algebraic (transient weight 0).
+type cubicChain struct {
+	n     int
+	kappa float64
+}
+
+func (p *cubicChain) Size() (int, int) { return p.n, 2 }
+
+func (p *cubicChain) Residual(x, f []float64) error {
+	for j := range p.n {
+		u := x[j*2]
+		um, up := x[max(j-1, 0)*2], x[min(j+1, p.n-1)*2]
+		f[j*2] = u*u*u - 3*u + 3 + p.kappa*(2*u-um-up)
+		f[j*2+1] = x[j*2+1] - u*u
+	}
+	return nil
+}
+
+func (p *cubicChain) TransientWeights(x, w []float64) {
+	for j := range p.n {
+		w[j*2], w[j*2+1] = 1, 0
+	}
+}
+
+func cubicRoot() float64 {
+	s := math.Sqrt(5)
+	return -(math.Cbrt((3+s)/2) + math.Cbrt((3-s)/2))
+}
+
+func TestPseudoTransientRescue(t *testing.T) {
+	p := &cubicChain{n: 15, kappa: 0.05}
+	start := func() []float64 {
+		x := make([]float64, 30)
+		for j := range 15 {
+			x[j*2] = 1.5 + 0.1*math.Sin(float64(j))
+			x[j*2+1] = x[j*2] * x[j*2]
+		}
+		return x
+	}
+	opt := DefaultOptions(2)
+	opt.MaxTimeStepAttempts = 0
+	x := start()
+	res, err := Solve(p, x, opt)
+	if err == nil || !errors.Is(err, ErrNotConverged) {
+		t.Fatalf("steady Newton alone: error %v, want ErrNotConverged (the problem must need time stepping)", err)
+	}
+	// On failure u holds an accepted state, and ResidualNorm describes it.
+	f := make([]float64, 30)
+	if err := p.Residual(x, f); err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(maxAbs(f)-res.ResidualNorm) > 1e-12*maxAbs(f) {
+		t.Errorf("after failure: ResidualNorm %.6g, but max|F(u)| = %.6g", res.ResidualNorm, maxAbs(f))
+	}
+
+	opt = DefaultOptions(2)
+	opt.TimeStep, opt.MaxTimeStep = 0.05, 1
+	x = start()
+	res, err = Solve(p, x, opt)
+	if err != nil {
+		t.Fatalf("with time stepping: %v", err)
+	}
+	if res.TimeSteps == 0 {
+		t.Error("converged without time steps")
+	}
+	r := cubicRoot()
+	if math.Abs(r-(-2.1038034027355365)) > 1e-12 {
+		t.Errorf("Cardano root %.16f, want -2.1038034027355365 (from memory)", r)
+	}
+	for j := range 15 {
+		// Tolerance: one step after a step of scaled norm < 1, i.e. well
+		// inside RelTol 1e-4 relative.
+		if math.Abs(x[j*2]-r) > 1e-4*math.Abs(r) || math.Abs(x[j*2+1]-r*r) > 1e-4*r*r {
+			t.Errorf("point %d: (%.8f, %.8f), want (%.8f, %.8f)", j, x[j*2], x[j*2+1], r, r*r)
+		}
+	}
+	t.Logf("time steps %d, Newton %d, Jacobians %d, factorisations %d", res.TimeSteps, res.NewtonIterations, res.JacobianEvaluations, res.Factorizations)
+}
+
+// TestTimeStepFloor checks that pseudo-time stepping gives up, wrapping
+// ErrNotConverged, when the time step falls below its minimum: the
+// residual fails for every state but the initial one.
+func TestTimeStepFloor(t *testing.T) {
+	p := &failingAway{cubicChain{n: 4, kappa: 0}, nil}
+	x := []float64{1.5, 2.25, 1.5, 2.25, 1.5, 2.25, 1.5, 2.25}
+	p.start = append([]float64(nil), x...)
+	opt := DefaultOptions(2)
+	opt.TimeStep, opt.MinTimeStep = 1e-3, 1e-6
+	_, err := Solve(p, x, opt)
+	if !errors.Is(err, ErrNotConverged) || !strings.Contains(err.Error(), "below the minimum") {
+		t.Errorf("error %v, want ErrNotConverged about the minimum time step", err)
+	}
+	if maxAbsDiff(x, p.start) != 0 {
+		t.Errorf("u = %v after failure, want the initial (only accepted) state %v", x, p.start)
+	}
+}
+
+type failingAway struct {
+	cubicChain
+	start []float64
+}
+
+var errAway = errors.New("state leaves the admissible set")
+
+func (p *failingAway) Residual(x, f []float64) error {
+	if maxAbsDiff(x, p.start) > 1e-6 {
+		return errAway
+	}
+	return p.cubicChain.Residual(x, f)
+}
+
+// logKinetics has a "mass fraction" y ≥ 0 per point with residual
+// ln((y + ε)/(y* + ε)) plus diffusion, and a coupled unbounded second
+// unknown z − y. The residual fails for y ≤ −ε. From y = 1 the full Newton
+// step overshoots to y ≈ −3 (for ε = 0.01, y* = 0.1). Every state passed to
+// the residual is recorded.
+type logKinetics struct {
+	n           int
+	minY        float64
+	target, eps float64
+}
+
+func (p *logKinetics) Size() (int, int) { return p.n, 2 }
+
+func (p *logKinetics) Residual(x, f []float64) error {
+	for j := range p.n {
+		p.minY = min(p.minY, x[j*2])
+	}
+	for j := range p.n {
+		y := x[j*2]
+		if y+p.eps <= 0 {
+			return errors.New("negative mass fraction")
+		}
+		ym, yp := x[max(j-1, 0)*2], x[min(j+1, p.n-1)*2]
+		f[j*2] = math.Log((y+p.eps)/(p.target+p.eps)) + 0.01*(2*y-ym-yp)
+		f[j*2+1] = x[j*2+1] - y
+	}
+	return nil
+}
+
+func TestBoundsRespected(t *testing.T) {
+	for _, bounded := range []bool{false, true} {
+		p := &logKinetics{n: 6, minY: math.Inf(1), target: 0.1, eps: 0.01}
+		x := make([]float64, 12)
+		for j := range 6 {
+			x[j*2], x[j*2+1] = 1, 1
+		}
+		opt := DefaultOptions(2)
+		if bounded {
+			opt.Lower[0] = 0
+		}
+		if _, err := Solve(p, x, opt); err != nil {
+			t.Fatalf("bounded=%v: %v", bounded, err)
+		}
+		for j := range 6 {
+			if math.Abs(x[j*2]-p.target) > 1e-4*p.target || math.Abs(x[j*2+1]-p.target) > 1e-4*p.target {
+				t.Errorf("bounded=%v: point %d = (%.6g, %.6g), want (%g, %g)", bounded, j, x[j*2], x[j*2+1], p.target, p.target)
+			}
+		}
+		if bounded && p.minY < 0 {
+			t.Errorf("with lower bound 0 the residual saw y = %.3g", p.minY)
+		}
+		if !bounded && p.minY >= 0 {
+			t.Errorf("without bounds y never went negative (min %.3g): the test does not exercise the bound", p.minY)
+		}
+	}
+}
+
+func TestJacobianReuse(t *testing.T) {
+	var results [2]Result
+	var answers [2][]float64
+	for k, age := range []int{1, 10} {
+		p := &bratu{lambda: 3, x: stretchedGrid(101)}
+		u := make([]float64, 101)
+		opt := bratuOptions(101)
+		opt.MaxJacobianAge = age
+		res, err := Solve(p, u, opt)
+		if err != nil {
+			t.Fatalf("MaxJacobianAge %d: %v", age, err)
+		}
+		results[k], answers[k] = res, u
+	}
+	if results[1].JacobianEvaluations >= results[0].JacobianEvaluations {
+		t.Errorf("Jacobian evaluations: %d with reuse, %d without; want fewer with reuse", results[1].JacobianEvaluations, results[0].JacobianEvaluations)
+	}
+	// Both met ‖Δu‖ < 1 in the scale 1e-10·|u| + 1e-12 and then applied the
+	// step, so they agree to a few times that scale.
+	if d := maxAbsDiff(answers[0], answers[1]); d > 1e-9 {
+		t.Errorf("answers with and without Jacobian reuse differ by %.3g", d)
+	}
+	t.Logf("fresh: %+v", results[0])
+	t.Logf("reuse: %+v", results[1])
+}
+
+// TestAnalyticJacobianUsed checks that a JacobianEvaluator replaces finite
+// differences: with it, residual evaluations are only those of the Newton
+// trial points.
+func TestAnalyticJacobianUsed(t *testing.T) {
+	fd := &bratu{lambda: 2, x: uniformGrid(51)}
+	an := &bratuAnalytic{bratu{lambda: 2, x: uniformGrid(51)}}
+	u1, u2 := make([]float64, 51), make([]float64, 51)
+	r1, err1 := Solve(fd, u1, bratuOptions(51))
+	r2, err2 := Solve(an, u2, bratuOptions(51))
+	if err1 != nil || err2 != nil {
+		t.Fatal(err1, err2)
+	}
+	if r2.ResidualEvaluations >= r1.ResidualEvaluations-3*r1.JacobianEvaluations+1 {
+		t.Errorf("residual evaluations %d with analytic Jacobian vs %d with finite differences (%d Jacobians)", r2.ResidualEvaluations, r1.ResidualEvaluations, r1.JacobianEvaluations)
+	}
+	if d := maxAbsDiff(u1, u2); d > 1e-9 {
+		t.Errorf("analytic and finite-difference Jacobians give answers %.3g apart", d)
+	}
+}
+
+type nanProblem struct{ bratu }
+
+// Residual returns NaN without an error once u(½) exceeds 0.1.
+func (p *nanProblem) Residual(u, f []float64) error {
+	err := p.bratu.Residual(u, f)
+	if u[len(u)/2] > 0.1 {
+		f[3] = math.NaN()
+	}
+	return err
+}
+
+func TestSolveErrors(t *testing.T) {
+	good := func() Options { return bratuOptions(11) }
+	p := &bratu{lambda: 1, x: uniformGrid(11)}
+	tests := []struct {
+		name string
+		p    Problem
+		u    []float64
+		opt  func() Options
+		want string
+	}{
+		{"length", p, make([]float64, 10), good, "len(u)"},
+		{"tolerance count", p, make([]float64, 11), func() Options { o := good(); o.AbsTol = nil; return o }, "AbsTol"},
+		{"zero abs tol", p, make([]float64, 11), func() Options { o := good(); o.AbsTol[0] = 0; return o }, "AbsTol[0]"},
+		{"bounds order", p, make([]float64, 11), func() Options { o := good(); o.Lower[0], o.Upper[0] = 1, 0; return o }, "bounds"},
+		{"outside bounds", p, make([]float64, 11), func() Options { o := good(); o.Lower[0] = 0.5; return o }, "outside its bounds"},
+		{"time steps", p, make([]float64, 11), func() Options { o := good(); o.MaxTimeStepAttempts = 1; o.MinTimeStep = 1; return o }, "MinTimeStep"},
+		{"NaN start", p, append(make([]float64, 10), math.NaN()), good, "initial state"},
+		{"NaN residual", &nanProblem{bratu{lambda: 3, x: uniformGrid(11)}}, make([]float64, 11), good, "residual is NaN"},
+	}
+	for _, tc := range tests {
+		_, err := Solve(tc.p, tc.u, tc.opt())
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: error %v, want one mentioning %q", tc.name, err, tc.want)
+		}
+	}
+}
+
+func BenchmarkSolveBratu(b *testing.B) {
+	p := &bratu{lambda: 3, x: stretchedGrid(401)}
+	u := make([]float64, 401)
+	opt := bratuOptions(401)
+	for b.Loop() {
+		clear(u)
+		if _, err := Solve(p, u, opt); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
