@@ -670,7 +670,31 @@ func (pr *pending) finish(u rateUnits, p *problemList) (chem.Reaction, bool) {
 		r.Form = chem.Elementary
 		r.Rate = u.toSI(pr.line, n)
 	}
+	if !finiteRates(&r) {
+		return fail("a rate parameter is not finite after conversion to SI units (order %g)", n)
+	}
 	return r, true
+}
+
+// finiteRates reports whether every rate parameter of r is a finite number.
+func finiteRates(r *chem.Reaction) bool {
+	ok := func(a chem.Arrhenius) bool {
+		return !math.IsInf(a.A, 0) && !math.IsNaN(a.A) && !math.IsInf(a.B, 0) && !math.IsInf(a.E, 0)
+	}
+	good := ok(r.Rate)
+	if r.ReverseRate != nil {
+		good = good && ok(*r.ReverseRate)
+	}
+	if f := r.FalloffRate; f != nil {
+		good = good && ok(f.Low) && ok(f.High)
+	}
+	for _, pr := range r.PressureRates {
+		good = good && ok(pr.Rate) && !math.IsInf(pr.P, 0)
+	}
+	if c := r.ChebyshevRate; c != nil {
+		good = good && !math.IsInf(c.Coeffs[0][0], 0) && !math.IsNaN(c.Coeffs[0][0]) && !math.IsInf(c.PMax, 0)
+	}
+	return good
 }
 
 func (pr *pending) thirdBody() *chem.ThirdBody {
