@@ -24,6 +24,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -89,12 +90,17 @@ func (c Criteria) validate() error {
 // Plan lists the changes Analyse decided for a grid of n points. Indices
 // refer to that grid.
 type Plan struct {
-	// Insert lists, in ascending order, intervals (x_j, x_j+1) to split. An
-	// interval listed once is split at its midpoint; one listed m times is
-	// divided into m+1 equal parts (Analyse does this only where a single
-	// split cannot meet the Ratio bound). len(Insert) is the number of points
-	// added.
+	// Insert lists, in ascending order, the interval (x_j, x_j+1) of each
+	// point to add; len(Insert) is the number of points added. An interval
+	// listed once is split at its midpoint unless At says otherwise; one
+	// listed m times receives m points (Analyse does this only where a
+	// single split cannot meet the Ratio bound).
 	Insert []int
+	// At, if it has the length of Insert, gives the position of each added
+	// point as a fraction of its interval, in (0, 1) and increasing within an
+	// interval: x = x_j + At[i]*(x_j+1 - x_j). Analyse always fills it. If
+	// At is nil, an interval listed m times is divided into m+1 equal parts.
+	At []float64
 	// Remove lists, in ascending order and without repetition, points to
 	// drop. Analyse never lists an end point, a kept point, or a point next
 	// to an interval it splits.
@@ -114,8 +120,8 @@ const (
 	ratioTol = 1e-6
 	flatTol  = 1e4 * 0x1p-52
 	// hardPointLimit stops the ratio enforcement when MaxPoints is 0 (no
-	// limit) and a Ratio very close to 1 meets a badly graded grid.
-	hardPointLimit = 1 << 24
+	// limit) and a Ratio close to 1 meets a badly graded grid.
+	hardPointLimit = 1 << 22
 )
 
 // Analyse decides where the grid x (strictly increasing, m) must be refined
@@ -127,14 +133,22 @@ const (
 // protect nothing).
 //
 // Marking: an interval failing the slope test of any tested component is
-// split; a point failing the curvature test has both of its intervals split.
-// Then, since splits create new neighbour ratios, split counts are raised
-// until every pair of neighbouring intervals of the planned grid satisfies
-// the Ratio bound: an interval of size h with m splits has sub-intervals
-// h/(m+1), and the smallest counts meeting the bound are found by monotone
-// iteration (it terminates because sizes only shrink and a uniformly fine
-// grid is a solution). If the input grid satisfies the bound, at most one
-// split per interval is needed.
+// split at its midpoint; a point failing the curvature test has both of its
+// intervals split. Then, since splits create new neighbour ratios, points
+// are added until every pair of neighbouring intervals of the planned grid
+// satisfies the Ratio bound, cascading as far as needed:
+//
+//   - Ratio >= 2: an interval larger than Ratio times a neighbour is
+//     bisected, recursively, so new points are graded geometrically (factor
+//     2) toward the finer neighbour; a mismatch h/h_nb costs about
+//     log2(h/(Ratio*h_nb)) points.
+//   - Ratio < 2, where bisection cannot always meet the bound: each interval
+//     is divided into the least number of equal parts meeting it, found by
+//     monotone iteration (counts only grow and a uniformly fine grid is a
+//     solution); a mismatch costs about h/(Ratio*h_nb) points.
+//
+// If the input grid already satisfies the bound, both add at most one point
+// per interval, at its midpoint.
 //
 // Pruning (Criteria.Prune > 0), done after marking, walks the interior
 // points left to right and removes point j when j is neither an end point
@@ -181,12 +195,15 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 		a.markSlope(s, c.Slope)
 		a.markCurvature(s, c.Curve)
 	}
-	limit := c.MaxPoints
-	if limit == 0 {
-		limit = hardPointLimit
+	// The ratio enforcement stops well past MaxPoints, so that the error
+	// below can report the exact count in ordinary cases.
+	limit := hardPointLimit
+	if c.MaxPoints > 0 {
+		limit = min(limit, 2*max(c.MaxPoints, n))
 	}
-	if err := a.enforceRatio(c.Ratio, limit); err != nil {
-		return Plan{}, err
+	if !a.enforceRatio(c.Ratio, limit) {
+		return Plan{}, fmt.Errorf("%w: refinement needs more than %d points (%d now) to meet the Ratio bound %g; raise MaxPoints (%d), loosen Slope (%g) / Curve (%g), or start from a better graded grid",
+			ErrTooManyPoints, limit, n, c.Ratio, c.MaxPoints, c.Slope, c.Curve)
 	}
 	var remove []int
 	if c.Prune > 0 {
@@ -194,16 +211,18 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 	}
 
 	var insert []int
-	for j, m := range a.split {
-		for i := 0; i < m; i++ {
+	var at []float64
+	for j, cuts := range a.cuts {
+		for _, t := range cuts {
 			insert = append(insert, j)
+			at = append(at, t)
 		}
 	}
 	if newN := n + len(insert) - len(remove); len(insert) > 0 && c.MaxPoints > 0 && newN > c.MaxPoints {
 		return Plan{}, fmt.Errorf("%w: refinement needs %d points (%d now, +%d, -%d), more than MaxPoints = %d; raise MaxPoints or loosen Slope (%g) / Curve (%g)",
 			ErrTooManyPoints, newN, n, len(insert), len(remove), c.MaxPoints, c.Slope, c.Curve)
 	}
-	return Plan{Insert: insert, Remove: remove}, nil
+	return Plan{Insert: insert, At: at, Remove: remove}, nil
 }
 
 // checkGrid validates sizes and values of a grid and its solution.
@@ -275,7 +294,8 @@ func keptPoints(x, keep []float64) []bool {
 type analysis struct {
 	x, u, h []float64
 	block   int
-	split   []int // points to insert in each interval
+	split   []int       // points to insert in each interval
+	cuts    [][]float64 // their positions, fractions of the interval
 	tested  []scale
 }
 
@@ -340,55 +360,147 @@ func (a *analysis) markCurvature(s scale, frac float64) {
 	}
 }
 
-// sub returns the size of the sub-intervals of interval j after its splits.
-func (a *analysis) sub(j int) float64 { return a.h[j] / float64(a.split[j]+1) }
-
-// enforceRatio raises split counts until neighbouring sub-intervals of the
-// planned grid satisfy the Ratio bound (see Analyse). limit caps the number
-// of planned points.
-func (a *analysis) enforceRatio(ratio float64, limit int) error {
+// enforceRatio adds points until neighbouring intervals of the planned grid
+// satisfy the Ratio bound (see Analyse), filling a.cuts and a.split. It
+// reports false if that needs more than limit points.
+func (a *analysis) enforceRatio(ratio float64, limit int) bool {
 	r := ratio * (1 + ratioTol)
+	a.cuts = make([][]float64, len(a.h))
+	ok := false
+	if ratio >= 2 {
+		ok = a.bisect(r, limit)
+	} else {
+		ok = a.equalParts(r, limit)
+	}
+	for j, c := range a.cuts {
+		a.split[j] = len(c)
+	}
+	return ok
+}
+
+// piece is a sub-interval of interval j of the analysed grid: fractions
+// [t0, t0+w] of it.
+type piece struct {
+	j     int
+	t0, w float64
+}
+
+// bisect halves pieces larger than r times a neighbour until none is, with
+// alternating forward and backward sweeps; each sweep carries a cascade
+// across the whole grid. It terminates for r >= 2: a piece is halved only
+// when larger than 2 neighbours, so both halves are larger than the
+// smallest piece, which never shrinks. Halving keeps t0 and w exact binary
+// fractions. It reports false if the pieces would exceed limit points.
+func (a *analysis) bisect(r float64, limit int) bool {
+	size := func(p piece) float64 { return p.w * a.h[p.j] }
+	var pieces []piece
+	for j, m := range a.split {
+		if m > 0 {
+			pieces = append(pieces, piece{j, 0, 0.5}, piece{j, 0.5, 0.5})
+		} else {
+			pieces = append(pieces, piece{j, 0, 1})
+		}
+	}
+	out := make([]piece, 0, len(pieces))
+	var changed, full bool
+	// push appends p to out, first halving it while it exceeds r times
+	// the last piece of out; inner is the half next to that piece.
+	var push func(p piece, forward bool)
+	push = func(p piece, forward bool) {
+		for len(out) > 0 && size(p) > r*size(out[len(out)-1]) && !full {
+			lo, hi := piece{p.j, p.t0, p.w / 2}, piece{p.j, p.t0 + p.w/2, p.w / 2}
+			if forward {
+				push(lo, forward)
+				p = hi
+			} else {
+				push(hi, forward)
+				p = lo
+			}
+			changed = true
+		}
+		out = append(out, p)
+		full = full || len(out)+len(a.x)-len(a.h) > limit
+	}
+	for {
+		changed = false
+		for _, forward := range []bool{true, false} {
+			out = out[:0]
+			if forward {
+				for _, p := range pieces {
+					push(p, true)
+				}
+			} else {
+				for i := len(pieces) - 1; i >= 0; i-- {
+					push(pieces[i], false)
+				}
+				slices.Reverse(out)
+			}
+			if full {
+				return false
+			}
+			pieces, out = out, pieces
+		}
+		if !changed {
+			break
+		}
+	}
+	for _, p := range pieces {
+		if p.t0 > 0 {
+			a.cuts[p.j] = append(a.cuts[p.j], p.t0)
+		}
+	}
+	return true
+}
+
+// equalParts raises the number of equal parts of each interval until
+// neighbouring parts satisfy the bound r, by monotone iteration: the counts
+// only grow, and a uniformly fine grid satisfies any r > 1, so the least
+// solution is reached. It reports false if the counts would exceed limit
+// points.
+func (a *analysis) equalParts(r float64, limit int) bool {
+	parts := make([]int, len(a.h))
 	total := len(a.x)
-	for _, m := range a.split {
+	for j, m := range a.split {
+		parts[j] = m + 1
 		total += m
 	}
-	tooMany := func() error {
-		return fmt.Errorf("%w: the Ratio bound %g needs more than %d points on this grid (%d now); raise MaxPoints, raise Ratio or start from a better graded grid",
-			ErrTooManyPoints, ratio, limit, len(a.x))
-	}
+	sub := func(j int) float64 { return a.h[j] / float64(parts[j]) }
 	for changed := true; changed; {
 		changed = false
-		// A forward and a backward sweep carry a cascade across the whole
-		// grid in one pass each way.
 		for dir := 0; dir < 2; dir++ {
 			for k := 0; k+1 < len(a.h); k++ {
 				j, nb := k, k+1
 				if dir == 1 {
 					j, nb = len(a.h)-1-k, len(a.h)-2-k
 				}
-				lim := r * a.sub(nb)
-				if a.sub(j) <= lim {
+				lim := r * sub(nb)
+				if sub(j) <= lim {
 					continue
 				}
-				// The least m with h_j/(m+1) <= lim.
-				parts := math.Ceil(a.h[j] / lim)
-				if parts > float64(limit) {
-					return tooMany()
+				// The least count with h_j/count <= lim.
+				need := math.Ceil(a.h[j] / lim)
+				if need > float64(limit) {
+					return false
 				}
-				m := int(parts) - 1
-				if a.h[j]/float64(m+1) > lim {
+				m := int(need)
+				if a.h[j]/float64(m) > lim {
 					m++
 				}
-				total += m - a.split[j]
-				a.split[j] = m
+				total += m - parts[j]
+				parts[j] = m
 				changed = true
 				if total > limit {
-					return tooMany()
+					return false
 				}
 			}
 		}
 	}
-	return nil
+	for j, m := range parts {
+		for i := 1; i < m; i++ {
+			a.cuts[j] = append(a.cuts[j], float64(i)/float64(m))
+		}
+	}
+	return true
 }
 
 // prune selects points to remove (see Analyse).
@@ -410,7 +522,7 @@ func (a *analysis) prune(kept []bool, c Criteria) []int {
 		pp, leftSize := -1, 0.0
 		if j >= 2 {
 			pp = j - 2
-			leftSize = a.sub(j - 2)
+			leftSize = a.h[j-2]
 			if len(remove) > 0 && remove[len(remove)-1] == j-2 {
 				pp = j - 3
 				leftSize = a.x[j-1] - a.x[j-3]
@@ -469,25 +581,44 @@ func (a *analysis) prunable(j, pp int, merged float64, c Criteria) bool {
 	return true
 }
 
-// Apply returns the grid and solution with the plan carried out. An interval
-// (x_j, x_j+1) listed m times in Insert receives the points
-// x_j + i/(m+1)*(x_j+1 - x_j), i = 1..m, with every component linearly
-// interpolated, u = u_j + t*(u_j+1 - u_j), t = i/(m+1); values of linear
-// profiles are therefore exact and no new extremum is created. Removed points
-// are dropped with their values. The inputs are not modified. Apply panics if
-// the plan's indices do not fit the grid, which is a programming error (a
-// plan from Analyse on the same grid always fits).
+// Apply returns the grid and solution with the plan carried out. A point
+// added at fraction t of interval (x_j, x_j+1) (see Plan.At) is placed at
+// x_j + t*(x_j+1 - x_j), and every component is linearly interpolated,
+// u = u_j + t*(u_j+1 - u_j): linear profiles stay exact and no new extremum
+// is created; the caller's solver then re-converges the values. Removed
+// points are dropped with their values. The inputs are not modified. Apply
+// panics if the plan does not fit the grid (indices out of range, At of the
+// wrong length or not increasing in (0, 1) within an interval), which is a
+// programming error: a plan from Analyse on the same grid always fits.
 func (p Plan) Apply(x, u []float64, block int) (newX, newU []float64) {
 	n := len(x)
 	if block < 1 || len(u) != n*block {
 		panic(fmt.Sprintf("grid: Plan.Apply: len(u) = %d, want len(x)*block = %d*%d", len(u), n, block))
 	}
-	splits := make([]int, n)
-	for _, j := range p.Insert {
+	if p.At != nil && len(p.At) != len(p.Insert) {
+		panic(fmt.Sprintf("grid: Plan.Apply: %d positions for %d insertions", len(p.At), len(p.Insert)))
+	}
+	fracs := make([][]float64, n)
+	for i, j := range p.Insert {
 		if j < 0 || j >= n-1 {
 			panic(fmt.Sprintf("grid: Plan.Apply: insert in interval %d, grid has %d intervals", j, n-1))
 		}
-		splits[j]++
+		if p.At == nil {
+			fracs[j] = append(fracs[j], 0)
+			continue
+		}
+		t, f := p.At[i], fracs[j]
+		if !(t > 0 && t < 1) || (len(f) > 0 && !(t > f[len(f)-1])) {
+			panic(fmt.Sprintf("grid: Plan.Apply: position %g in interval %d not increasing in (0, 1)", t, j))
+		}
+		fracs[j] = append(f, t)
+	}
+	if p.At == nil {
+		for _, f := range fracs {
+			for i := range f {
+				f[i] = float64(i+1) / float64(len(f)+1)
+			}
+		}
 	}
 	removed := make([]bool, n)
 	nRemoved := 0
@@ -508,9 +639,7 @@ func (p Plan) Apply(x, u []float64, block int) (newX, newU []float64) {
 			newX = append(newX, x[j])
 			newU = append(newU, u[j*block:(j+1)*block]...)
 		}
-		k := splits[j]
-		for i := 1; i <= k; i++ {
-			t := float64(i) / float64(k+1)
+		for _, t := range fracs[j] {
 			newX = append(newX, x[j]+t*(x[j+1]-x[j]))
 			for c := 0; c < block; c++ {
 				lo, hi := u[j*block+c], u[(j+1)*block+c]
