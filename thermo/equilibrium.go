@@ -511,6 +511,7 @@ func (q *equilibrium) computeMu() {
 // sec. 3.6: n_j |Δln n_j| / sum n <= tol and the like).
 func (q *equilibrium) gordonMcBride(tol float64) error {
 	nE := len(q.elem)
+	atLimit := 0 // consecutive iterations pressing against a temperature limit
 	for ; q.iter < q.maxIter; q.iter++ {
 		q.updateThermo()
 		q.computeMu()
@@ -564,6 +565,13 @@ func (q *equilibrium) gordonMcBride(tol float64) error {
 		}
 		q.lnN += lambda * q.dlnN
 		q.setT(q.T * math.Exp(lambda*q.dlnT))
+		if (q.T == maxEquilibriumTemperature && q.dlnT > 0) || (q.T == minEquilibriumTemperature && q.dlnT < 0) {
+			if atLimit++; atLimit >= 10 {
+				return fmt.Errorf("equilibrium temperature reached the search limit %g K: enthalpy out of range", q.T)
+			}
+		} else {
+			atLimit = 0
+		}
 	}
 	return fmt.Errorf("%w after %d iterations (free-amount stage)", ErrNotConverged, q.iter)
 }

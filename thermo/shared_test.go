@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"flame1d/chem"
 	"flame1d/chem/keyblock"
 	"flame1d/thermo"
 )
@@ -75,4 +76,24 @@ func moles(t testing.TB, s *thermo.SpeciesSet, pairs map[string]float64) []float
 		n[k] = v
 	}
 	return n
+}
+
+// gri30Mechanism imports GRI-Mech 3.0 with its reactions and returns it with
+// a species set in the same species order.
+func gri30Mechanism(t testing.TB) (*chem.Mechanism, *thermo.SpeciesSet) {
+	t.Helper()
+	dir := filepath.Join(mechanismsDir(t), "gri30")
+	m, _, err := keyblock.ReadFiles(filepath.Join(dir, "mech.inp"), filepath.Join(dir, "thermo.dat"), "")
+	if err != nil {
+		t.Fatalf("importing GRI-Mech 3.0: %v", err)
+	}
+	sp := make([]thermo.Species, len(m.Species))
+	for i := range m.Species {
+		sp[i] = m.Species[i].Species
+	}
+	s, err := thermo.NewSpeciesSet(sp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m, s
 }
