@@ -20,8 +20,9 @@ import (
 // fraction pushed past a physical limit), that column group is retried with
 // the opposite sign, −h_k; if that fails too the error is returned. The
 // difference uses the increment actually represented in floating point,
-// (u_k + h_k) − u_k. u is restored before return. After its first call for a
-// given J the function allocates nothing.
+// (u_k + h_k) − u_k. u is restored before return; on error the contents
+// of J are unspecified. After its first call for a given J the function
+// allocates nothing.
 //
 // The truncation error is O(h·|F”|) and the rounding error O(ε·|F|/h); with
 // relPert ≈ absPert/|u| ≈ √ε ≈ 1.5e−8 both are about √ε relative (Dennis &
@@ -77,15 +78,36 @@ func FiniteDifferenceJacobian(residual func(u, f []float64) error, u, f0 []float
 					default:
 						blk = J.Lower[jr*bb : (jr+1)*bb]
 					}
-					for r := 0; r < b; r++ {
-						ir := jr*b + r
-						blk[r*b+k] = (fp[ir] - f0[ir]) * inv
+					// Column k is stored as row k for now (contiguous
+					// writes); the blocks are transposed at the end.
+					col := blk[k*b : (k+1)*b]
+					fr, f0r := fp[jr*b:(jr+1)*b], f0[jr*b:(jr+1)*b]
+					for r := range col {
+						col[r] = (fr[r] - f0r[r]) * inv
 					}
 				}
 			}
 		}
 	}
+	for j := range n {
+		transposeBlock(J.Diag[j*bb:(j+1)*bb], b)
+		if j > 0 {
+			transposeBlock(J.Lower[j*bb:(j+1)*bb], b)
+		}
+		if j < n-1 {
+			transposeBlock(J.Upper[j*bb:(j+1)*bb], b)
+		}
+	}
 	return nil
+}
+
+// transposeBlock transposes the b×b row-major matrix a in place.
+func transposeBlock(a []float64, b int) {
+	for r := 0; r < b; r++ {
+		for c := r + 1; c < b; c++ {
+			a[r*b+c], a[c*b+r] = a[c*b+r], a[r*b+c]
+		}
+	}
 }
 
 // perturbColumns sets component k of every point j ≡ colour (mod 3) of up to

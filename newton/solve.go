@@ -37,7 +37,8 @@ type Transient interface {
 // Jacobian of F. Otherwise Solve uses FiniteDifferenceJacobian on Residual.
 type JacobianEvaluator interface {
 	// Jacobian fills J (zeroed before the call) with ∂F/∂u at u, where
-	// f0 = F(u).
+	// f0 = F(u). f0 is scratch owned by the solver: the evaluator may
+	// overwrite it.
 	Jacobian(u, f0 []float64, J *BlockTridiagonal) error
 }
 
@@ -387,11 +388,13 @@ func (s *solver) system(u, f []float64) error {
 // refreshJacobian evaluates ∂F/∂u at u, where s.f is the current system's
 // residual at u.
 func (s *solver) refreshJacobian(u []float64) error {
-	f0 := s.f
+	// f0 is a copy, so an evaluator that writes into it (or fails half-way
+	// through) cannot corrupt the residual of the accepted state.
+	f0 := s.fSteady
+	copy(f0, s.f)
 	if s.transient {
-		f0 = s.fSteady
 		for i, c := range s.wdt {
-			f0[i] = s.f[i] - c*(u[i]-s.uOld[i])
+			f0[i] -= c * (u[i] - s.uOld[i])
 		}
 	}
 	t0 := time.Now()
@@ -526,11 +529,18 @@ func (s *solver) accept(u []float64) {
 	s.res.NewtonIterations++
 }
 
-func (s *solver) report(stepNorm, lam float64) {
-	if s.opt.Progress == nil {
+// recordSteady records an accepted steady Newton step (undamped norm s0,
+// damping lam) and reports it; steps inside pseudo-time steps are not
+// reported individually.
+func (s *solver) recordSteady(s0, lam float64) {
+	if s.transient {
 		return
 	}
-	s.opt.Progress(Event{Stage: "newton", Iteration: s.steadySteps, ResidualNorm: maxAbs(s.f), StepNorm: stepNorm, Damping: lam})
+	s.steadySteps++
+	s.res.StepNorm = s0
+	if s.opt.Progress != nil {
+		s.opt.Progress(Event{Stage: "newton", Iteration: s.steadySteps, ResidualNorm: maxAbs(s.f), StepNorm: s0, Damping: lam})
+	}
 }
 
 // newtonFailure records why a Newton attempt stopped; it is turned into an
@@ -612,17 +622,19 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			return true, nil
 		}
 		lmax, at := s.boundLimit(u, s.du)
-		if s0 < 1 && lmax >= 1 {
-			s.trial(u, s.du, 1)
-			if err := s.system(s.ut, s.ft); err == nil {
-				s.accept(u)
-				s.converged(s0)
-				return true, nil
-			}
-		}
-
 		lam := min(1, lmax)
 		nf = newtonFailure{kind: failBound, lam: lam, at: at}
+		if s0 < 1 && lmax >= 1 {
+			s.trial(u, s.du, 1)
+			err := s.system(s.ut, s.ft)
+			if err == nil {
+				s.accept(u)
+				s.recordSteady(s0, 1)
+				return true, nil
+			}
+			nf = newtonFailure{kind: failTrial, lam: 1, trialErr: err}
+			lam /= 2 // the full step just failed
+		}
 		accepted := false
 		for ; lam >= minDamping; lam /= 2 {
 			s.trial(u, s.du, lam)
@@ -651,26 +663,12 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			return false, s.failure(&nf, maxIter)
 		}
 		s.accept(u)
-		if !s.transient {
-			s.steadySteps++
-			s.res.StepNorm = s0
-			s.report(s0, lam)
-		}
+		s.recordSteady(s0, lam)
 		haveStep = true
 		needFresh = lam < 1 || nf.theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
 		nf = newtonFailure{kind: failIterations, s0: s0, theta: nf.theta}
 	}
 	return false, s.failure(&nf, maxIter)
-}
-
-// converged records the final step of a successful steady Newton attempt.
-func (s *solver) converged(s0 float64) {
-	if s.transient {
-		return
-	}
-	s.steadySteps++
-	s.res.StepNorm = s0
-	s.report(s0, 1)
 }
 
 // timeSteps takes Options.StepsPerAttempt accepted backward-Euler steps of

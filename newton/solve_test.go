@@ -367,3 +367,83 @@ func BenchmarkSolveBratu(b *testing.B) {
 		}
 	}
 }
+
+// shifted is F_{j,c} = u_{j,c} − target_{j,c}; with a Jacobian error set,
+// its Jacobian evaluator always fails, and with badWeight its transient
+// weights are negative.
+type shifted struct {
+	n, b      int
+	target    []float64
+	jacErr    error
+	badWeight bool
+}
+
+func (p *shifted) Size() (int, int) { return p.n, p.b }
+
+func (p *shifted) Residual(u, f []float64) error {
+	for i := range u {
+		f[i] = u[i] - p.target[i]
+	}
+	return nil
+}
+
+func (p *shifted) TransientWeights(u, w []float64) {
+	for i := range w {
+		w[i] = 1
+	}
+	if p.badWeight {
+		w[len(w)-1] = -1
+	}
+}
+
+type shiftedFailingJacobian struct{ shifted }
+
+func (p *shiftedFailingJacobian) Jacobian(u, f0 []float64, J *BlockTridiagonal) error {
+	return p.jacErr
+}
+
+func TestSolveFailureReasons(t *testing.T) {
+	target := []float64{0.5, 0.5, 0.5, -1, 0.5, 0.5}
+	start := func() []float64 { return []float64{0.2, 0.2, 0.2, 0, 0.2, 0.2} }
+	jacErr := errors.New("chemistry table missing")
+
+	// The unknown (point 1, component 1) sits on its lower bound 0 and the
+	// step points below it: no damping helps.
+	opt := DefaultOptions(2)
+	opt.Lower[1] = 0
+	opt.MaxTimeStepAttempts = 0
+	x := start()
+	_, err := Solve(&shifted{n: 3, b: 2, target: target}, x, opt)
+	if !errors.Is(err, ErrNotConverged) || !strings.Contains(err.Error(), "point 1, component 1 at its bound") {
+		t.Errorf("blocked by bound: error %v, want ErrNotConverged naming point 1, component 1", err)
+	}
+	if maxAbsDiff(x, start()) != 0 {
+		t.Errorf("blocked by bound: u = %v, want the initial state", x)
+	}
+
+	opt = DefaultOptions(2)
+	_, err = Solve(&shiftedFailingJacobian{shifted{n: 3, b: 2, target: target, jacErr: jacErr}}, start(), opt)
+	if !errors.Is(err, ErrNotConverged) || !errors.Is(err, jacErr) {
+		t.Errorf("failing Jacobian: error %v, want it to wrap ErrNotConverged and %v", err, jacErr)
+	}
+
+	opt = DefaultOptions(2)
+	opt.Lower[1] = 0
+	_, err = Solve(&shifted{n: 3, b: 2, target: target, badWeight: true}, start(), opt)
+	if err == nil || !strings.Contains(err.Error(), "transient weight at point 2, component 1") {
+		t.Errorf("negative transient weight: error %v, want one naming point 2, component 1", err)
+	}
+
+	// Without obstacles the linear problem takes one Newton step with one
+	// Jacobian (3·B = 6 finite-difference residuals), plus the initial and
+	// the trial residual.
+	opt = DefaultOptions(2)
+	x = start()
+	res, err := Solve(&shifted{n: 3, b: 2, target: target}, x, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if maxAbsDiff(x, target) > 1e-12 || res.JacobianEvaluations != 1 || res.ResidualEvaluations != 8 || res.NewtonIterations != 1 {
+		t.Errorf("linear problem: u = %v, %+v; want the target after 1 step, 1 Jacobian, 8 residuals", x, res)
+	}
+}
