@@ -1,0 +1,511 @@
+package flame
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"time"
+
+	"flame1d/chem"
+	"flame1d/grid"
+	"flame1d/newton"
+	"flame1d/thermo"
+	"flame1d/transport"
+)
+
+// Inlet is the unburned mixture entering the domain.
+type Inlet struct {
+	T float64   // K
+	P float64   // Pa
+	Y []float64 // mass fractions over the mechanism's species
+}
+
+// Settings control the numerical solution. Zero values take defaults
+// (DefaultSettings).
+type Settings struct {
+	Grid          grid.Criteria
+	InitialPoints int
+	// DomainLength is the initial domain length in m; 0 chooses one from the
+	// pressure. The domain is extended automatically when either end is not
+	// flat.
+	DomainLength float64
+	// AnchorRise is the temperature rise above the inlet, in K, at which the
+	// flame is pinned.
+	AnchorRise float64
+	// ThermalDiffusion adds the thermal-diffusion (Soret) flux of light species.
+	ThermalDiffusion bool
+	// RelTol and AbsTolY/AbsTolT control Newton convergence on the scaled step.
+	RelTol, AbsTolY, AbsTolT float64
+	// MaxRefinements bounds the solve/refine cycles.
+	MaxRefinements int
+	// Workers is the number of goroutines for residual evaluation (0 = all cores).
+	Workers int
+	// Progress receives stage messages; nil silences them.
+	Progress func(Progress)
+}
+
+// Progress reports what the solver is doing.
+type Progress struct {
+	Stage        string
+	Points       int
+	ResidualNorm float64
+	Message      string
+}
+
+// DefaultSettings returns the settings used when a case does not override them.
+func DefaultSettings() Settings {
+	c := grid.DefaultCriteria()
+	c.Slope, c.Curve, c.Ratio = 0.06, 0.12, 2.5
+	if c.MaxPoints == 0 {
+		c.MaxPoints = 1500
+	}
+	c.MinRange = 1e-6
+	return Settings{
+		Grid: c, InitialPoints: 30, AnchorRise: 400, ThermalDiffusion: true,
+		RelTol: 1e-6, AbsTolY: 1e-11, AbsTolT: 1e-6, MaxRefinements: 40,
+	}
+}
+
+// Solution is a converged (or last attempted) flame.
+type Solution struct {
+	Mechanism *chem.Mechanism
+	Inlet     Inlet
+	X         []float64 // grid, m
+	U         []float64 // point-major unknowns (see layout.go)
+	AnchorX   float64   // position of the pinned temperature, m
+	AnchorT   float64   // K
+	// AdiabaticT is the adiabatic equilibrium temperature of the inlet
+	// mixture (complete equilibrium at constant enthalpy and pressure), K.
+	AdiabaticT float64
+	Stats      Stats
+}
+
+// Stats counts the work a solve did.
+type Stats struct {
+	NewtonIterations, TimeSteps, JacobianEvaluations, Factorizations, ResidualEvaluations int
+	Refinements, DomainExtensions                                                         int
+	ResidualTime, JacobianTime, FactorTime, SolveTime, WallTime                           time.Duration
+}
+
+func (s *Stats) add(r newton.Result) {
+	s.NewtonIterations += r.NewtonIterations
+	s.TimeSteps += r.TimeSteps
+	s.JacobianEvaluations += r.JacobianEvaluations
+	s.Factorizations += r.Factorizations
+	s.ResidualEvaluations += r.ResidualEvaluations
+	s.ResidualTime += r.ResidualTime
+	s.JacobianTime += r.JacobianTime
+	s.FactorTime += r.FactorTime
+	s.SolveTime += r.SolveTime
+}
+
+// NumSpecies returns the species count of the solution's mechanism.
+func (s *Solution) NumSpecies() int { return len(s.Mechanism.Species) }
+
+// Points returns the number of grid points.
+func (s *Solution) Points() int { return len(s.X) }
+
+// T returns the temperature at point j.
+func (s *Solution) T(j int) float64 { return s.U[j*blockSize(s.NumSpecies())+compT] }
+
+// Y returns the mass fractions at point j (a view).
+func (s *Solution) Y(j int) []float64 {
+	K := s.NumSpecies()
+	b := j * blockSize(K)
+	return s.U[b+1 : b+1+K]
+}
+
+// MassFlux returns the eigenvalue m = rho u, kg/(m^2 s).
+func (s *Solution) MassFlux() float64 { return s.U[compM(s.NumSpecies())] }
+
+// Solver solves free flames for one mechanism; building it fits transport
+// properties once, so reuse it across conditions.
+type Solver struct {
+	ph *physics
+}
+
+// NewSolver prepares kinetics and transport for a mechanism. The transport
+// fits cover 250-3500 K.
+func NewSolver(m *chem.Mechanism) (*Solver, error) {
+	tr, err := transport.New(m, transport.Options{TMin: 250, TMax: 3500})
+	if err != nil {
+		return nil, fmt.Errorf("transport: %w", err)
+	}
+	ph, err := newPhysics(m, tr)
+	if err != nil {
+		return nil, err
+	}
+	return &Solver{ph: ph}, nil
+}
+
+// ErrNotConverged is wrapped by every failure to find a steady flame.
+var ErrNotConverged = errors.New("flame did not converge")
+
+// Solve computes the flame for the inlet, starting from a built-in initial
+// guess (unburned gas joined to adiabatic equilibrium products).
+func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
+	start := time.Now()
+	set = withDefaults(set)
+	if err := s.checkInlet(in); err != nil {
+		return nil, err
+	}
+	guess, err := s.initialGuess(in, set)
+	if err != nil {
+		return nil, err
+	}
+	// Stage 1: species with the guessed temperature profile and mass flux.
+	pr := s.problemFor(guess, set)
+	pr.mode = equationMode{energy: false, freeFlux: false}
+	copy(pr.fixedT, temperatures(guess))
+	pr.fixedFlux = guess.MassFlux()
+	var stats Stats
+	s.report(set, "fixed-temperature", len(guess.X), "species with the guessed temperature profile")
+	res, err := newton.Solve(pr, guess.U, s.newtonOptions(set, pr.b))
+	stats.add(res)
+	if err != nil {
+		return nil, fmt.Errorf("%w: fixed-temperature start-up stage: %v", ErrNotConverged, err)
+	}
+	sol, err := s.refineLoop(guess, set, &stats)
+	if sol != nil {
+		stats.WallTime = time.Since(start)
+		sol.Stats = stats
+	}
+	return sol, err
+}
+
+// SolveFrom computes the flame for the inlet starting from a previous
+// solution (continuation): the old profiles are mapped onto the new inlet
+// state and solved with the full equations.
+func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, error) {
+	start := time.Now()
+	set = withDefaults(set)
+	if err := s.checkInlet(in); err != nil {
+		return nil, err
+	}
+	if prev.Mechanism != s.ph.mech {
+		return nil, fmt.Errorf("restart solution belongs to a different mechanism")
+	}
+	eq, err := adiabaticEquilibrium(s.ph, in)
+	if err != nil {
+		return nil, fmt.Errorf("adiabatic equilibrium of the inlet mixture: %w", err)
+	}
+	guess := s.adaptGuess(prev, in, set)
+	guess.AdiabaticT = eq.T
+	var stats Stats
+	sol, err := s.refineLoop(guess, set, &stats)
+	if sol != nil {
+		stats.WallTime = time.Since(start)
+		sol.Stats = stats
+	}
+	return sol, err
+}
+
+func (s *Solver) checkInlet(in Inlet) error {
+	K := s.ph.nSpecies
+	if len(in.Y) != K {
+		return fmt.Errorf("inlet has %d mass fractions, mechanism has %d species", len(in.Y), K)
+	}
+	if !(in.T > 150 && in.T < 2000) {
+		return fmt.Errorf("inlet temperature %g K is outside 150-2000 K", in.T)
+	}
+	if !(in.P > 100 && in.P < 1e8) {
+		return fmt.Errorf("pressure %g Pa is outside 100 Pa - 100 MPa", in.P)
+	}
+	sum := 0.0
+	for _, y := range in.Y {
+		if y < 0 || math.IsNaN(y) {
+			return fmt.Errorf("inlet mass fractions must be non-negative")
+		}
+		sum += y
+	}
+	if math.Abs(sum-1) > 1e-8 {
+		return fmt.Errorf("inlet mass fractions sum to %g, not 1", sum)
+	}
+	return nil
+}
+
+func withDefaults(s Settings) Settings {
+	d := DefaultSettings()
+	if s.Grid.Slope == 0 {
+		s.Grid.Slope = d.Grid.Slope
+	}
+	if s.Grid.Curve == 0 {
+		s.Grid.Curve = d.Grid.Curve
+	}
+	if s.Grid.Ratio == 0 {
+		s.Grid.Ratio = d.Grid.Ratio
+	}
+	if s.Grid.MaxPoints == 0 {
+		s.Grid.MaxPoints = d.Grid.MaxPoints
+	}
+	if s.Grid.MinRange == 0 {
+		s.Grid.MinRange = d.Grid.MinRange
+	}
+	if s.InitialPoints == 0 {
+		s.InitialPoints = d.InitialPoints
+	}
+	if s.AnchorRise == 0 {
+		s.AnchorRise = d.AnchorRise
+	}
+	if s.RelTol == 0 {
+		s.RelTol = d.RelTol
+	}
+	if s.AbsTolY == 0 {
+		s.AbsTolY = d.AbsTolY
+	}
+	if s.AbsTolT == 0 {
+		s.AbsTolT = d.AbsTolT
+	}
+	if s.MaxRefinements == 0 {
+		s.MaxRefinements = d.MaxRefinements
+	}
+	return s
+}
+
+func (s *Solver) report(set Settings, stage string, points int, msg string) {
+	if set.Progress != nil {
+		set.Progress(Progress{Stage: stage, Points: points, Message: msg})
+	}
+}
+
+func (s *Solver) newtonOptions(set Settings, b int) newton.Options {
+	o := newton.DefaultOptions(b)
+	K := s.ph.nSpecies
+	for c := 0; c < b; c++ {
+		o.RelTol[c] = set.RelTol
+		o.AbsTol[c] = set.AbsTolY
+		o.Lower[c] = -1e-7
+		o.Upper[c] = 1.0 + 1e-7
+	}
+	o.AbsTol[compT] = set.AbsTolT
+	o.Lower[compT], o.Upper[compT] = 200, 6000
+	cm := compM(K)
+	o.AbsTol[cm] = 1e-9
+	o.Lower[cm], o.Upper[cm] = 1e-7, 1e4
+	if set.Progress != nil {
+		o.Progress = func(e newton.Event) {
+			set.Progress(Progress{Stage: e.Stage, ResidualNorm: e.ResidualNorm})
+		}
+	}
+	return o
+}
+
+func temperatures(sol *Solution) []float64 {
+	T := make([]float64, sol.Points())
+	for j := range T {
+		T[j] = sol.T(j)
+	}
+	return T
+}
+
+func (s *Solver) problemFor(sol *Solution, set Settings) *problem {
+	pr := newProblem(s.ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, set.Workers)
+	pr.anchor = indexOf(sol.X, sol.AnchorX)
+	pr.anchorT = sol.AnchorT
+	pr.mode = equationMode{energy: true, freeFlux: true}
+	return pr
+}
+
+func indexOf(x []float64, v float64) int {
+	best, bi := math.Inf(1), 0
+	for i, xi := range x {
+		if d := math.Abs(xi - v); d < best {
+			best, bi = d, i
+		}
+	}
+	return bi
+}
+
+// refineLoop alternates full solves and grid refinement until the grid
+// satisfies the criteria and both domain ends are flat.
+func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solution, error) {
+	K := s.ph.nSpecies
+	b := blockSize(K)
+	comps := make([]int, 0, K+1)
+	for c := 0; c <= K; c++ {
+		comps = append(comps, c)
+	}
+	for iter := 0; ; iter++ {
+		pr := s.problemFor(sol, set)
+		s.report(set, "solve", sol.Points(), "full equations")
+		res, err := newton.Solve(pr, sol.U, s.newtonOptions(set, b))
+		stats.add(res)
+		if err != nil {
+			return sol, fmt.Errorf("%w on %d points: %v", ErrNotConverged, sol.Points(), err)
+		}
+		if iter >= set.MaxRefinements {
+			return sol, fmt.Errorf("%w: grid still changing after %d refinements", ErrNotConverged, iter)
+		}
+		if s.extendDomain(sol, set) {
+			stats.DomainExtensions++
+			continue
+		}
+		newX, newU, changed, err := grid.Refine(sol.X, sol.U, b, comps, []float64{sol.AnchorX}, set.Grid)
+		if err != nil {
+			return sol, fmt.Errorf("grid refinement: %w", err)
+		}
+		if !changed {
+			return sol, nil
+		}
+		stats.Refinements++
+		sol.X, sol.U = newX, newU
+		sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
+	}
+}
+
+// Flatness limits for the domain ends. At the inlet, the temperature
+// gradient relative to the peak gradient: 1e-3 keeps the heat lost to the
+// fixed inlet temperature negligible for S_L (common practice, no source).
+// At the outlet, the post-flame recombination zone is long and slow; the
+// temperature still to be gained there is about the outlet gradient times the
+// domain length, which is held below outletRise so the burned temperature
+// approaches equilibrium within a few kelvin.
+const (
+	endFlatness = 1e-3
+	outletRise  = 1.0 // K
+)
+
+// extendDomain lengthens the domain at an end that is not flat, copying the
+// end state onto the new points. It reports whether it changed the grid.
+func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
+	n := sol.Points()
+	maxG := 0.0
+	for j := 0; j+1 < n; j++ {
+		maxG = math.Max(maxG, math.Abs(sol.T(j+1)-sol.T(j))/(sol.X[j+1]-sol.X[j]))
+	}
+	if maxG == 0 {
+		return false
+	}
+	gIn := math.Abs(sol.T(1)-sol.T(0)) / (sol.X[1] - sol.X[0])
+	gOut := math.Abs(sol.T(n-2)-sol.T(n-3)) / (sol.X[n-2] - sol.X[n-3])
+	L := sol.X[n-1] - sol.X[0]
+	extended := false
+	b := blockSize(sol.NumSpecies())
+	if gIn > endFlatness*maxG {
+		add := 0.25 * L
+		pts := 4
+		newX := make([]float64, 0, n+pts)
+		newU := make([]float64, 0, (n+pts)*b)
+		for i := 0; i < pts; i++ {
+			newX = append(newX, sol.X[0]-add*float64(pts-i)/float64(pts))
+			newU = append(newU, sol.U[:b]...)
+		}
+		sol.X = append(newX, sol.X...)
+		sol.U = append(newU, sol.U...)
+		extended = true
+		s.report(set, "extend", len(sol.X), "inlet end not flat: domain extended upstream")
+	}
+	if gOut > endFlatness*maxG || gOut*L > outletRise {
+		add := 0.5 * L
+		pts := 4
+		last := sol.X[len(sol.X)-1]
+		end := append([]float64(nil), sol.U[len(sol.U)-b:]...)
+		for i := 1; i <= pts; i++ {
+			sol.X = append(sol.X, last+add*float64(i)/float64(pts))
+			sol.U = append(sol.U, end...)
+		}
+		extended = true
+		s.report(set, "extend", len(sol.X), "outlet end not flat: domain extended downstream")
+	}
+	return extended
+}
+
+// initialGuess builds the start-up profiles: a smooth temperature rise from
+// the inlet to the adiabatic equilibrium temperature, compositions blended
+// between inlet and equilibrium products, and a mass flux from a typical
+// flame speed of 0.4 m/s.
+func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
+	K := s.ph.nSpecies
+	eq, err := adiabaticEquilibrium(s.ph, in)
+	if err != nil {
+		return nil, fmt.Errorf("adiabatic equilibrium of the inlet mixture: %w", err)
+	}
+	if eq.T < in.T+set.AnchorRise+100 {
+		return nil, fmt.Errorf("mixture is not flammable: the adiabatic equilibrium temperature %.0f K is only %.0f K above the inlet; "+
+			"check the equivalence ratio and the fuel/oxidizer composition", eq.T, eq.T-in.T)
+	}
+	L := set.DomainLength
+	if L == 0 {
+		// The flame thickness scales roughly as P^-0.5 to P^-1; 2 cm at 1 atm
+		// holds a hydrocarbon flame and its post-flame zone.
+		L = 0.02 * math.Pow(in.P/thermo.OneAtmosphere, -0.6)
+		L = math.Min(math.Max(L, 2e-3), 0.05)
+	}
+	xc := 0.3 * L
+	width := 0.1 * L
+	x := grid.Clustered(0, L, xc, width, set.InitialPoints)
+	b := blockSize(K)
+	u := make([]float64, len(x)*b)
+	anchorT := in.T + set.AnchorRise
+	// Smooth profile: fraction 0 -> 1 across the clustered zone.
+	frac := func(xv float64) float64 { return 0.5 * (1 + math.Tanh((xv-xc)/(0.25*width))) }
+	rhoU := in.P * meanMolarMassY(s.ph, in.Y) / (thermo.GasConstant * in.T)
+	mGuess := rhoU * 0.4
+	for j, xv := range x {
+		f := frac(xv)
+		if j == 0 {
+			f = 0
+		}
+		base := j * b
+		u[base+compT] = in.T + f*(eq.T-in.T)
+		for k := 0; k < K; k++ {
+			u[base+1+k] = (1-f)*in.Y[k] + f*eq.Y[k]
+		}
+		u[base+compM(K)] = mGuess
+	}
+	// Place the anchor at the grid point nearest the anchor temperature and
+	// make the guess pass through it exactly.
+	ja := 1
+	for j := 1; j < len(x)-1; j++ {
+		if math.Abs(u[j*b+compT]-anchorT) < math.Abs(u[ja*b+compT]-anchorT) {
+			ja = j
+		}
+	}
+	u[ja*b+compT] = anchorT
+	return &Solution{Mechanism: s.ph.mech, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT, AdiabaticT: eq.T}, nil
+}
+
+// adaptGuess maps a previous solution onto a new inlet state: the profiles
+// are shifted so the previous flame's shape is kept, inlet values replaced,
+// and the anchor kept at the same position.
+func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings) *Solution {
+	K := s.ph.nSpecies
+	b := blockSize(K)
+	u := append([]float64(nil), prev.U...)
+	x := append([]float64(nil), prev.X...)
+	n := len(x)
+	// Blend: near the inlet use the new inlet composition; the change fades
+	// out across the flame following the old progress variable.
+	Tu0, Tb0 := prev.T(0), prev.T(n-1)
+	for j := 0; j < n; j++ {
+		base := j * b
+		c := (u[base+compT] - Tu0) / math.Max(Tb0-Tu0, 1)
+		c = math.Min(math.Max(c, 0), 1)
+		sum := 0.0
+		for k := 0; k < K; k++ {
+			y := u[base+1+k] + (1-c)*(in.Y[k]-prev.Inlet.Y[k])
+			if y < 0 {
+				y = 0
+			}
+			u[base+1+k] = y
+			sum += y
+		}
+		for k := 0; k < K; k++ {
+			u[base+1+k] /= sum
+		}
+		u[base+compT] += (1 - c) * (in.T - prev.Inlet.T)
+		u[base+compM(K)] *= (in.P / prev.Inlet.P) * math.Sqrt(prev.Inlet.P/in.P)
+	}
+	anchorT := in.T + set.AnchorRise
+	ja := indexOf(x, prev.AnchorX)
+	u[ja*b+compT] = math.Max(u[ja*b+compT], anchorT)
+	return &Solution{Mechanism: prev.Mechanism, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT}
+}
+
+func meanMolarMassY(ph *physics, Y []float64) float64 {
+	s := 0.0
+	for k, y := range Y {
+		s += y * ph.invW[k]
+	}
+	return 1 / s
+}
