@@ -162,8 +162,8 @@ const (
 // 1e4*eps*max|u_c|/min h.
 //
 // Errors: bad sizes, fewer than 2 points, NaN or infinite values, x not
-// strictly increasing, component indices out of range, and invalid criteria
-// are reported. If the plan inserts points and the resulting count would
+// strictly increasing, component indices out of range, invalid criteria, and
+// intervals too small to split in float64 are reported. If the plan inserts points and the resulting count would
 // exceed MaxPoints (> 0), the error wraps ErrTooManyPoints and Plan is zero.
 // The result depends only on the arguments.
 func Analyse(x, u []float64, block int, components []int, keep []float64, c Criteria) (Plan, error) {
@@ -213,7 +213,15 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 	var insert []int
 	var at []float64
 	for j, cuts := range a.cuts {
+		prev := x[j]
 		for _, t := range cuts {
+			// The same expression as in Apply, so the check holds there.
+			xt := x[j] + t*(x[j+1]-x[j])
+			if !(xt > prev && xt < x[j+1]) {
+				return Plan{}, fmt.Errorf("grid: cannot refine interval %d [%.17g, %.17g]: new points would coincide in float64; the solution varies on a scale below the resolution of x",
+					j, x[j], x[j+1])
+			}
+			prev = xt
 			insert = append(insert, j)
 			at = append(at, t)
 		}

@@ -602,6 +602,25 @@ func TestAnalyseRejectsBadInput(t *testing.T) {
 	}
 }
 
+// TestAnalyseLimits: an interval too small to split in float64 gives an
+// error rather than duplicate points, and with MaxPoints = 0 (no limit) a
+// hopeless ratio cascade still ends in ErrTooManyPoints instead of running
+// away.
+func TestAnalyseLimits(t *testing.T) {
+	eps := math.Nextafter(1, 2) - 1
+	x := []float64{0, 1, 1 + eps, 2}
+	_, err := Analyse(x, []float64{0, 0, 1, 1}, 1, nil, nil, DefaultCriteria())
+	if err == nil || !strings.Contains(err.Error(), "coincide") {
+		t.Errorf("sub-resolution interval: err = %v, want a float64 resolution error", err)
+	}
+	c := DefaultCriteria()
+	c.MaxPoints, c.Ratio = 0, 1.01
+	_, err = Analyse([]float64{0, 1e-9, 1}, make([]float64, 3), 1, nil, nil, c)
+	if !errors.Is(err, ErrTooManyPoints) {
+		t.Errorf("Ratio 1.01 across a 1e9 jump without MaxPoints: err = %v, want ErrTooManyPoints", err)
+	}
+}
+
 // TestApplyLinearInterpolation checks Apply on a hand-made plan: one
 // interval split into three, one at its midpoint, one point removed; values
 // of a linear profile stay exact.

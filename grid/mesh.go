@@ -40,13 +40,21 @@ const (
 // linearly (geometrically from point to point, by about 20%) away from it up
 // to hc = 4*(x1-x0)/(n-1); hf is found by bisection so that exactly n points
 // fit. A zone covering the whole domain gives the uniform grid; width = 0
-// clusters at the single position xc, which may lie outside the domain.
+// clusters at the single position xc. A zone wholly outside the domain is
+// first moved inside it, against the nearer end.
 //
 // Clustered returns nil unless n >= 2, x0 < x1, width >= 0 and all arguments
 // are finite, or if the points cannot be told apart in float64.
 func Clustered(x0, x1, xc, width float64, n int) []float64 {
 	if n < 2 || !finite(x0) || !finite(x1) || !finite(xc) || !finite(width) || !(x1 > x0) || !(width >= 0) {
 		return nil
+	}
+	// A zone wholly outside the domain is moved inside, to the nearer end:
+	// otherwise the domain, where h >= 0.2 d > 0, might not hold n points.
+	if xc+width/2 < x0 {
+		xc = x0 + width/2
+	} else if xc-width/2 > x1 {
+		xc = x1 - width/2
 	}
 	L := x1 - x0
 	z := cluster{half: width / 2, hc: clusterCap * L / float64(n-1)}
