@@ -114,7 +114,8 @@ func (fo *falloffData) broadening(x float64, c []float64, lnT, invT float64) (ln
 	case sriForm:
 		lnB, dlnB := c[5], c[6]
 		X := 1 / (1 + x*x)
-		return fo.lnSD + X*lnB + fo.se*lnT, -2 * x * X * X * lnB, X*dlnB + fo.se*invT
+		// d ln F/d ln Pr = ln B dX/dx dx/d ln Pr, dx/d ln Pr = 1/ln 10.
+		return fo.lnSD + X*lnB + fo.se*lnT, -2 * x * X * X * lnB / math.Ln10, X*dlnB + fo.se*invT
 	}
 	return 0, 0, 0
 }

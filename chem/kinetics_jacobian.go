@@ -41,7 +41,14 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 		if r.form == ThreeBody {
 			mf = w.thirdBody[r.thirdBdy]
 		}
-		q := (kf*pf - kr*pr) * mf
+		// Same operation order as progress: wdot is bitwise that of
+		// NetProductionRates.
+		fw, bw := kf*pf, kr*pr
+		if r.form == ThreeBody {
+			fw *= mf
+			bw *= mf
+		}
+		q := fw - bw
 		dqdT := (w.dkfdT[i]*pf - w.dkrdT[i]*pr) * mf
 
 		// dq/dC_j = uniform + sum of sparse entries for species j.
