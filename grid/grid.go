@@ -150,12 +150,14 @@ const (
 // If the input grid already satisfies the bound, both add at most one point
 // per interval, at its midpoint.
 //
-// Pruning (Criteria.Prune > 0), done after marking, walks the interior
-// points left to right and removes point j when j is neither an end point
-// nor kept, neither of its intervals nor the intervals beside them is split,
-// the previous point was not removed, and on the grid without j the merged
-// interval satisfies the slope and curvature tests with limits scaled by
-// Prune and the Ratio bound against its final neighbours.
+// Pruning (Criteria.Prune > 0), done after marking and ratio enforcement,
+// walks the interior points left to right and removes point j when j is
+// neither an end point nor kept, neither of its intervals nor the intervals
+// beside them is split, the previous point was not removed, and on the grid
+// without j the merged interval satisfies the slope and curvature tests with
+// limits scaled by Prune and the Ratio bound against its neighbours. Since
+// Prune < 1, a pruned grid passes the next analysis unchanged unless the
+// solution changes.
 //
 // A component is tested only if its range exceeds MinRange and the roundoff
 // floor 1e4*eps*max|u_c|; its curvature only if the slope range exceeds
@@ -163,8 +165,10 @@ const (
 //
 // Errors: bad sizes, fewer than 2 points, NaN or infinite values, x not
 // strictly increasing, component indices out of range, invalid criteria, and
-// intervals too small to split in float64 are reported. If the plan inserts points and the resulting count would
-// exceed MaxPoints (> 0), the error wraps ErrTooManyPoints and Plan is zero.
+// intervals too small to split in float64 are reported. If the plan inserts
+// points and the resulting count would exceed MaxPoints (> 0), the error
+// wraps ErrTooManyPoints, names the counts and what to loosen, and Plan is
+// zero.
 // The result depends only on the arguments.
 func Analyse(x, u []float64, block int, components []int, keep []float64, c Criteria) (Plan, error) {
 	if err := c.validate(); err != nil {
