@@ -1,0 +1,164 @@
+package mechtoml
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+
+	"flame1d/chem"
+)
+
+// TestHandBuiltValidates guards the test data itself: the mechanism used for
+// round trips passes chem's validation (balanced, duplicates marked).
+func TestHandBuiltValidates(t *testing.T) {
+	if problems, err := handBuilt().Validate(); err != nil {
+		t.Fatalf("hand-built mechanism invalid: %v %v", err, problems)
+	}
+}
+
+// TestRoundTripExact: Write then Read gives back every field of a mechanism
+// with every reaction form, bit for bit (a conservation law of the format:
+// nothing is lost or rounded).
+func TestRoundTripExact(t *testing.T) {
+	want := handBuilt()
+	got, text := roundTrip(t, handBuilt())
+	// The one documented change: a reaction without equation text gets the
+	// canonical equation.
+	for i := range want.Reactions {
+		if want.Reactions[i].Equation == "" {
+			want.Reactions[i].Equation = "H2O2 + H <=> HO2 + H2"
+		}
+	}
+	normalize(want)
+	normalize(got)
+	if d := diffMechanisms(want, got); d != "" {
+		t.Fatalf("round trip changed the mechanism: %s\n%s", d, numbered(text))
+	}
+	if !reflect.DeepEqual(want, got) {
+		t.Fatal("round trip changed the mechanism (DeepEqual)")
+	}
+	// Writing what was read gives the same text (the writer is a function of
+	// the model alone).
+	var again bytes.Buffer
+	if err := Write(&again, got); err != nil {
+		t.Fatal(err)
+	}
+	if again.String() != text {
+		t.Error("second write differs from the first")
+	}
+}
+
+// TestWrittenUnits checks that the writer keeps the numbers of published
+// sources (cal/mol, cm-mol-s, atm, Å, debye) where the conversion is
+// exactly reversible, and falls back to SI with a unit where it is not.
+func TestWrittenUnits(t *testing.T) {
+	_, text := roundTrip(t, handBuilt())
+	for _, want := range []string{
+		`equation = "H+O2<=>O+OH"`,                      // author's text kept
+		`rate = {A = 2.65e+16, b = -0.6707, E = 17041}`, // cm^3/mol/s and cal/mol as published
+		`rate = {A = 1.2e+17, b = -1, E = 0}`,           // termolecular: cm^6/mol^2/s
+		`{P = 0.01, A = 4.936e+14, b = -0.669, E = -445.8}`,
+		`P = "12345.678 Pa"`,                       // no exact atm form
+		`E = "12345.678901 J/mol"`,                 // no exact cal/mol form
+		`equation = "CH3 + OH <=> CH2(S) + H2O"`,   // canonical, since the author's (+M) is not a third body here
+		`written_as = "CH3+OH(+M)=CH2(S)+H2O(+M)"`, // author's text kept beside it
+		`equation = "H2O2 + H <=> HO2 + H2"`,       // filled in
+		`{shape = "linear", well_depth = 38, diameter = 2.92, polarizability = 0.79, rotational_relaxation = 280}`,
+		`dipole = 1.844`,
+		`diameter = "2.605e-10 m"`, // 2.605 Å has no exact image of 2.605e-10 m under q*1e-10
+		`"CH2(S)" = 2`,
+		`(+AR)`,
+		`default_efficiency = 0`,
+		`sri = {a = 0.45, b = 797, c = 979}`,
+		`sri = {a = 1.1, b = 1200, c = 101, d = 1.2, e = -0.3}`,
+		`troe = {a = 0.5, T3 = 1e-30, T1 = 1e+30}`,
+		`phase = "condensed"`,
+		`[reaction.chemically_activated]`,
+		`[reaction.chebyshev]`,
+		"[8.684, 0.8, -0.1]", // log10 k in cm^3/mol/s, as an importer converted it
+		"k_units = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
+		`P_range = ["1000 Pa", "1e+07 Pa"]`,
+		`orders = {O2 = 0.8, H2O = 0.1, CH4 = 0.7}`,
+		`reverse_orders = {H2 = 0.25, H2O = 1}`,
+	} {
+		if !strings.Contains(text, want) {
+			t.Errorf("written file lacks %s", want)
+		}
+	}
+	if t.Failed() {
+		t.Log(numbered(text))
+	}
+}
+
+// TestWriteFileAtomic: WriteFile leaves the finished file and no temporary
+// beside it; ReadFile reads it back with Origins pointing into it.
+func TestWriteFileAtomic(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "mech.toml")
+	if err := WriteFile(path, handBuilt()); err != nil {
+		t.Fatal(err)
+	}
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(entries) != 1 || entries[0].Name() != "mech.toml" {
+		t.Errorf("directory holds %v, want only mech.toml", entries)
+	}
+	m, _, err := ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, _ := os.ReadFile(path)
+	lines := strings.Split(string(text), "\n")
+	for _, o := range []chem.Position{m.Species[3].Origin, m.Reactions[5].Origin} {
+		if o.File != path || o.Line < 1 || o.Line > len(lines) {
+			t.Fatalf("origin %+v not in %s", o, path)
+		}
+	}
+	if l := lines[m.Species[3].Origin.Line-1]; l != "[[species]]" || lines[m.Species[3].Origin.Line] != `name = "O2"` {
+		t.Errorf("species 4 origin line %d is %q, want the [[species]] header of O2", m.Species[3].Origin.Line, l)
+	}
+	if l := lines[m.Reactions[5].Origin.Line-1]; l != "[[reaction]]" || !strings.Contains(lines[m.Reactions[5].Origin.Line], "HO2 (+M)") {
+		t.Errorf("reaction 6 origin line %d is %q, want the [[reaction]] header of H + O2 (+M)", m.Reactions[5].Origin.Line, l)
+	}
+	// A write into a missing directory fails and leaves nothing.
+	if err := WriteFile(filepath.Join(dir, "no", "such.toml"), handBuilt()); err == nil {
+		t.Error("WriteFile into a missing directory succeeded")
+	}
+}
+
+// TestWriteRefusesLoss: data the format cannot carry is an error, never
+// silently dropped.
+func TestWriteRefusesLoss(t *testing.T) {
+	cases := []struct {
+		name   string
+		change func(m *chem.Mechanism)
+		want   string
+	}{
+		{"rate on falloff", func(m *chem.Mechanism) { m.Reactions[5].Rate.A = 1 }, "do not belong"},
+		{"efficiencies on elementary", func(m *chem.Mechanism) { m.Reactions[0].ThirdBody = &chem.ThirdBody{Default: 1} }, "without a third body"},
+		{"three-body without efficiencies", func(m *chem.Mechanism) { m.Reactions[3].ThirdBody = nil }, "without collision efficiencies"},
+		{"NaN rate", func(m *chem.Mechanism) { m.Reactions[0].Rate.B = nan() }, "non-finite"},
+		{"Inf thermo", func(m *chem.Mechanism) { m.Species[0].Thermo.Low[2] = inf() }, "non-finite"},
+		{"bad geometry", func(m *chem.Mechanism) { m.Species[0].Transport.Geometry = 7 }, "geometry"},
+		{"troe and sri", func(m *chem.Mechanism) { m.Reactions[5].FalloffRate.SRI = &chem.SRI{D: 1} }, "both Troe and SRI"},
+		{"T2 without HasT2", func(m *chem.Mechanism) { m.Reactions[5].FalloffRate.Troe.T2 = 5 }, "HasT2"},
+		{"bad utf8 name", func(m *chem.Mechanism) { m.Name = "\xff" }, "UTF-8"},
+		{"ragged chebyshev", func(m *chem.Mechanism) { m.Reactions[11].ChebyshevRate.Coeffs[1] = []float64{1} }, "unequal"},
+		{"index out of range", func(m *chem.Mechanism) { m.Reactions[0].Reactants[0].Species = 99 }, "out of range"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			m := handBuilt()
+			c.change(m)
+			err := Write(&bytes.Buffer{}, m)
+			if err == nil || !strings.Contains(err.Error(), c.want) {
+				t.Fatalf("Write error = %v, want one containing %q", err, c.want)
+			}
+		})
+	}
+}
