@@ -69,6 +69,9 @@ type worker struct {
 	kin  *chem.Kinetics
 	tr   *transport.Model
 	conc []float64
+	dWdC []float64 // K*K
+	dWdT []float64
+	dWdY []float64 // K*(K+1): d wdot_i/d(T, Y_k) at constant P
 	xMid []float64
 	yMid []float64
 	mix  transport.MixtureProperties
@@ -83,17 +86,19 @@ type problem struct {
 	b    int // block size
 	mode equationMode
 
-	pressure      float64
-	inletT        float64
-	inletY        []float64
-	anchor        int     // index of the fixed-temperature point
-	anchorT       float64 // K
-	fixedFlux     float64 // kg/(m^2 s), used when !mode.freeFlux
-	fixedT        []float64
-	thermalDiff   bool
-	workers       []*worker
-	frozen        bool // reuse midpoint transport properties (Jacobian evaluation)
-	haveTransport bool
+	pressure    float64
+	inletT      float64
+	inletY      []float64
+	anchor      int     // index of the fixed-temperature point
+	anchorT     float64 // K
+	fixedFlux   float64 // kg/(m^2 s), used when !mode.freeFlux
+	fixedT      []float64
+	thermalDiff bool
+	workers     []*worker
+	// During Jacobian evaluation: frozen reuses the midpoint transport
+	// properties of the base state and frozenChem its production rates.
+	frozen, frozenChem bool
+	haveTransport      bool
 
 	// per-point state (n entries, or n*K)
 	X     []float64 // mole fractions n*K
@@ -131,6 +136,7 @@ func newProblem(ph *physics, x []float64, inletT, pressure float64, inletY []flo
 		w := &worker{
 			kin: ph.kinetics.Clone(), tr: ph.transport.Clone(),
 			conc: make([]float64, K), xMid: make([]float64, K), yMid: make([]float64, K),
+			dWdC: make([]float64, K*K), dWdT: make([]float64, K), dWdY: make([]float64, K*(K+1)),
 		}
 		w.mix.Diffusion = make([]float64, K)
 		if thermalDiff {
@@ -214,7 +220,9 @@ func (p *problem) pointProperties(u []float64) error {
 				w.conc[k] = rho * Y[k] * p.ph.invW[k]
 			}
 			p.cp[j] = cpMix
-			w.kin.NetProductionRates(T, w.conc, p.wdot[j*K:(j+1)*K])
+			if !p.frozenChem {
+				w.kin.NetProductionRates(T, w.conc, p.wdot[j*K:(j+1)*K])
+			}
 		}
 	})
 	return bad
@@ -371,19 +379,79 @@ func (p *problem) TransientWeights(u, w []float64) {
 	}
 }
 
-// Jacobian evaluates a finite-difference Jacobian with transport properties
-// frozen at the state u: the perturbed residuals reuse the midpoint
-// viscosity-free coefficients (rho D_km, lambda, thermal diffusion) computed
-// at u. The dependence of the properties on the state is weak compared with
-// that of the fluxes and chemistry; Newton's convergence rate is barely
-// affected while each Jacobian costs a fraction of a full one.
+// Jacobian assembles the Jacobian in two parts. Transport, convection and
+// thermodynamic terms are differentiated by three-colour finite differences
+// of the residual with the midpoint transport properties and the production
+// rates frozen at u: the properties depend weakly on the state compared with
+// the fluxes they multiply, so Newton's convergence is barely affected while
+// a perturbed residual costs no kinetics and no transport evaluation. The
+// chemical source terms are added analytically, from the exact derivatives of
+// the production rates (chem.Kinetics.ProductionRateDerivatives) converted
+// from (T, C) at constant C to (T, Y) at constant P:
+//
+//	dC_i/dY_k = rho/W_i delta_ik - C_i W/W_k,   dC_i/dT = -C_i/T.
 func (p *problem) Jacobian(u, f0 []float64, J *newton.BlockTridiagonal) error {
 	if err := p.Residual(u, f0); err != nil {
 		return err
 	}
-	p.frozen = true
-	defer func() { p.frozen = false }()
-	return newton.FiniteDifferenceJacobian(p.Residual, u, f0, J, 1e-7, 1e-12)
+	p.frozen, p.frozenChem = true, true
+	err := newton.FiniteDifferenceJacobian(p.Residual, u, f0, J, 1e-7, 1e-12)
+	p.frozen, p.frozenChem = false, false
+	if err != nil {
+		return err
+	}
+	p.addChemistryJacobian(u, J)
+	return nil
+}
+
+// addChemistryJacobian adds d(-w_k W_k)/du to the species rows and
+// d(sum_k h_k w_k)/du (h_k held, its T-dependence is in the finite
+// differences) to the energy row of every interior point.
+func (p *problem) addChemistryJacobian(u []float64, J *newton.BlockTridiagonal) {
+	K := p.ph.nSpecies
+	b := p.b
+	p.parallel(p.n, func(w *worker, lo, hi int) {
+		for j := max(lo, 1); j < min(hi, p.n-1); j++ {
+			base := j * b
+			T := u[base+compT]
+			rho, wm := p.rho[j], p.wMean[j]
+			Y := u[base+1 : base+1+K]
+			for k := 0; k < K; k++ {
+				w.conc[k] = rho * Y[k] * p.ph.invW[k]
+			}
+			wd := p.wdot[j*K : (j+1)*K]
+			w.kin.ProductionRateDerivatives(T, w.conc, wd, w.dWdC, w.dWdT)
+			// dWdY row i: [d/dT, d/dY_0 .. d/dY_K-1]
+			for i := 0; i < K; i++ {
+				row := w.dWdC[i*K : (i+1)*K]
+				sc := 0.0
+				for c := 0; c < K; c++ {
+					sc += row[c] * w.conc[c]
+				}
+				out := w.dWdY[i*(K+1) : (i+1)*(K+1)]
+				out[0] = w.dWdT[i] - sc/T
+				for k := 0; k < K; k++ {
+					out[1+k] = row[k]*rho*p.ph.invW[k] - sc*wm*p.ph.invW[k]
+				}
+			}
+			D := J.DiagBlock(j)
+			hk := p.hk[j*K : (j+1)*K]
+			for i := 0; i < K; i++ {
+				dw := w.dWdY[i*(K+1) : (i+1)*(K+1)]
+				rowY := D[(1+i)*b : (1+i)*b+K+1]
+				Wi := p.ph.molarMass[i]
+				for c := 0; c <= K; c++ {
+					rowY[c] -= Wi * dw[c]
+				}
+				if p.mode.energy {
+					rowT := D[compT*b : compT*b+K+1]
+					for c := 0; c <= K; c++ {
+						rowT[c] += hk[i] * dw[c]
+					}
+				}
+			}
+		}
+	})
 }
 
 // energyResidual is the temperature form of the energy equation at interior

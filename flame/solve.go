@@ -77,7 +77,10 @@ type Solution struct {
 	// AdiabaticT is the adiabatic equilibrium temperature of the inlet
 	// mixture (complete equilibrium at constant enthalpy and pressure), K.
 	AdiabaticT float64
-	Stats      Stats
+	// InitialLength is the domain length the solve started from, m; the
+	// outlet flatness test is scaled by it.
+	InitialLength float64
+	Stats         Stats
 }
 
 // Stats counts the work a solve did.
@@ -325,10 +328,21 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 	for c := 0; c <= K; c++ {
 		comps = append(comps, c)
 	}
+	// While the grid is still changing, solve to a loose tolerance: the
+	// solution only has to be good enough to place the next points. On a
+	// grid that passes the criteria, solve to the requested tolerance and
+	// check the criteria once more.
+	loose := set
+	loose.RelTol = math.Max(set.RelTol, looseRelTol)
+	tight := false
 	for iter := 0; ; iter++ {
 		pr := s.problemFor(sol, set)
+		use := loose
+		if tight {
+			use = set
+		}
 		s.report(set, "solve", sol.Points(), "full equations")
-		res, err := newton.Solve(pr, sol.U, s.newtonOptions(set, b))
+		res, err := newton.Solve(pr, sol.U, s.newtonOptions(use, b))
 		stats.add(res)
 		if err != nil {
 			return sol, fmt.Errorf("%w on %d points: %v", ErrNotConverged, sol.Points(), err)
@@ -345,29 +359,40 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 			return sol, fmt.Errorf("grid refinement: %w", err)
 		}
 		if !changed {
-			return sol, nil
+			if tight {
+				return sol, nil
+			}
+			tight = true
+			continue
 		}
+		tight = false
 		stats.Refinements++
 		sol.X, sol.U = newX, newU
 		sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
 	}
 }
 
+// looseRelTol is the relative Newton tolerance on grids that are still being
+// refined.
+const looseRelTol = 1e-4
+
 // Flatness limits for the domain ends. At the inlet, the temperature
 // gradient relative to the peak gradient: 1e-3 keeps the heat lost to the
 // fixed inlet temperature negligible for S_L (common practice, no source).
 // At the outlet, the post-flame recombination zone is long and slow; the
 // temperature still to be gained there is about the outlet gradient times the
-// domain length, which is held below outletRise so the burned temperature
+// initial domain length, which is held below outletRise so the burned temperature
 // approaches equilibrium within a few kelvin.
 const (
-	endFlatness = 1e-3
-	outletRise  = 1.0 // K
+	endFlatness     = 1e-3
+	outletRise      = 1.0 // K
+	maxDomainGrowth = 20
 )
 
 // extendDomain lengthens the domain at an end that is not flat, copying the
 // end state onto the new points. It reports whether it changed the grid.
 func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
+	initialLength := sol.InitialLength
 	n := sol.Points()
 	maxG := 0.0
 	for j := 0; j+1 < n; j++ {
@@ -395,7 +420,7 @@ func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
 		extended = true
 		s.report(set, "extend", len(sol.X), "inlet end not flat: domain extended upstream")
 	}
-	if gOut > endFlatness*maxG || gOut*L > outletRise {
+	if (gOut > endFlatness*maxG || gOut*initialLength > outletRise) && L < maxDomainGrowth*initialLength {
 		add := 0.5 * L
 		pts := 4
 		last := sol.X[len(sol.X)-1]
@@ -428,11 +453,11 @@ func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
 	if L == 0 {
 		// The flame thickness scales roughly as P^-0.5 to P^-1; 2 cm at 1 atm
 		// holds a hydrocarbon flame and its post-flame zone.
-		L = 0.02 * math.Pow(in.P/thermo.OneAtmosphere, -0.6)
-		L = math.Min(math.Max(L, 2e-3), 0.05)
+		L = 0.04 * math.Pow(in.P/thermo.OneAtmosphere, -0.6)
+		L = math.Min(math.Max(L, 4e-3), 0.1)
 	}
-	xc := 0.3 * L
-	width := 0.1 * L
+	xc := 0.15 * L
+	width := 0.05 * L
 	x := grid.Clustered(0, L, xc, width, set.InitialPoints)
 	b := blockSize(K)
 	u := make([]float64, len(x)*b)
@@ -462,7 +487,7 @@ func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
 		}
 	}
 	u[ja*b+compT] = anchorT
-	return &Solution{Mechanism: s.ph.mech, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT, AdiabaticT: eq.T}, nil
+	return &Solution{Mechanism: s.ph.mech, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT, AdiabaticT: eq.T, InitialLength: L}, nil
 }
 
 // adaptGuess maps a previous solution onto a new inlet state: the profiles
@@ -499,7 +524,8 @@ func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings) *Solution {
 	anchorT := in.T + set.AnchorRise
 	ja := indexOf(x, prev.AnchorX)
 	u[ja*b+compT] = math.Max(u[ja*b+compT], anchorT)
-	return &Solution{Mechanism: prev.Mechanism, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT}
+	return &Solution{Mechanism: prev.Mechanism, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT,
+		InitialLength: prev.InitialLength}
 }
 
 func meanMolarMassY(ph *physics, Y []float64) float64 {
