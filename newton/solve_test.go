@@ -278,7 +278,7 @@ func TestJacobianReuse(t *testing.T) {
 	for k, age := range []int{1, 10} {
 		p := &bratu{lambda: 3, x: stretchedGrid(101)}
 		u := make([]float64, 101)
-		opt := bratuOptions(101)
+		opt := bratuOptions()
 		opt.MaxJacobianAge = age
 		res, err := Solve(p, u, opt)
 		if err != nil {
@@ -305,8 +305,8 @@ func TestAnalyticJacobianUsed(t *testing.T) {
 	fd := &bratu{lambda: 2, x: uniformGrid(51)}
 	an := &bratuAnalytic{bratu{lambda: 2, x: uniformGrid(51)}}
 	u1, u2 := make([]float64, 51), make([]float64, 51)
-	r1, err1 := Solve(fd, u1, bratuOptions(51))
-	r2, err2 := Solve(an, u2, bratuOptions(51))
+	r1, err1 := Solve(fd, u1, bratuOptions())
+	r2, err2 := Solve(an, u2, bratuOptions())
 	if err1 != nil || err2 != nil {
 		t.Fatal(err1, err2)
 	}
@@ -330,7 +330,7 @@ func (p *nanProblem) Residual(u, f []float64) error {
 }
 
 func TestSolveErrors(t *testing.T) {
-	good := func() Options { return bratuOptions(11) }
+	good := func() Options { return bratuOptions() }
 	p := &bratu{lambda: 1, x: uniformGrid(11)}
 	tests := []struct {
 		name string
@@ -359,7 +359,7 @@ func TestSolveErrors(t *testing.T) {
 func BenchmarkSolveBratu(b *testing.B) {
 	p := &bratu{lambda: 3, x: stretchedGrid(401)}
 	u := make([]float64, 401)
-	opt := bratuOptions(401)
+	opt := bratuOptions()
 	for b.Loop() {
 		clear(u)
 		if _, err := Solve(p, u, opt); err != nil {
