@@ -218,12 +218,32 @@ func TestRefactorAfterShift(t *testing.T) {
 	}
 }
 
+// TestFactorSolveAllocations checks that Factor and Solve allocate nothing
+// once a matrix has been factored (conventions: no allocation in hot loops).
+func TestFactorSolveAllocations(t *testing.T) {
+	m := randomBlockTridiagonal(rand.New(rand.NewPCG(11, 12)), 20, 6, true)
+	rhs := make([]float64, 120)
+	if err := m.Factor(); err != nil {
+		t.Fatal(err)
+	}
+	allocs := testing.AllocsPerRun(10, func() {
+		if err := m.Factor(); err != nil {
+			t.Fatal(err)
+		}
+		m.Solve(rhs)
+	})
+	if allocs != 0 {
+		t.Errorf("Factor+Solve: %v allocations per run, want 0", allocs)
+	}
+}
+
 func BenchmarkFactorSolve(b *testing.B) {
 	for _, nb := range [][2]int{{200, 55}, {500, 12}} {
 		rng := rand.New(rand.NewPCG(9, 10))
 		m := randomBlockTridiagonal(rng, nb[0], nb[1], true)
 		rhs := make([]float64, nb[0]*nb[1])
 		b.Run(fmt.Sprintf("N=%d/B=%d", nb[0], nb[1]), func(b *testing.B) {
+			b.ReportAllocs()
 			for b.Loop() {
 				if err := m.Factor(); err != nil {
 					b.Fatal(err)

@@ -141,6 +141,25 @@ func TestFiniteDifferenceJacobian(t *testing.T) {
 	}
 }
 
+func TestFiniteDifferenceJacobianAllocations(t *testing.T) {
+	p := &coupled3{n: 9}
+	u := coupled3State(9)
+	f0 := make([]float64, 27)
+	J := NewBlockTridiagonal(9, 3)
+	residual := p.residual
+	if err := FiniteDifferenceJacobian(residual, u, f0, J, 1e-8, 1e-8); err != nil {
+		t.Fatal(err)
+	}
+	allocs := testing.AllocsPerRun(10, func() {
+		if err := FiniteDifferenceJacobian(residual, u, f0, J, 1e-8, 1e-8); err != nil {
+			t.Fatal(err)
+		}
+	})
+	if allocs != 0 {
+		t.Errorf("FiniteDifferenceJacobian: %v allocations per call after the first, want 0", allocs)
+	}
+}
+
 func TestFiniteDifferenceJacobianErrors(t *testing.T) {
 	p := &coupled3{n: 4}
 	u := coupled3State(4)
@@ -179,6 +198,7 @@ func BenchmarkFiniteDifferenceJacobian(b *testing.B) {
 	f0 := make([]float64, n*nb)
 	copy(f0, u)
 	J := NewBlockTridiagonal(n, nb)
+	b.ReportAllocs()
 	for b.Loop() {
 		if err := FiniteDifferenceJacobian(residual, u, f0, J, 1e-8, 1e-8); err != nil {
 			b.Fatal(err)
