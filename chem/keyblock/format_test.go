@@ -377,6 +377,9 @@ func TestWarnings(t *testing.T) {
 		{"atomic weight", strings.Replace(h, "H O C N", "H O C N D/2.014/", 1) + "END\n", "atomic weight \"2.014\" given for element D ignored"},
 		{"species twice", strings.Replace(h, "A1\t", "A1 H2\t", 1) + "END\n", "species \"H2\" declared twice"},
 		{"efficiency of unknown species", h + "H+O2+M<=>HO2+M 1 0 0\nQQ/2/\nEND\n", "'QQ', which is not a species"},
+		{"defective record of an unused species", strings.Replace(h, "THERMO ALL\n   300.000  1000.000  5000.000\n",
+			"THERMO ALL\n   300.000  1000.000  5000.000\n"+strings.Replace(thermoRecord("UNUSED", "H", 1), "4.36600000E+00", "4.366000X0E+00", 1), 1) + "END\n",
+			`thermo record "UNUSED": bad coefficient`},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

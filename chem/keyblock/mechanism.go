@@ -102,9 +102,16 @@ func Read(mech, thermoR, transport io.Reader, names ...string) (*chem.Mechanism,
 	}
 	var p problemList
 	mf := scanMechanism(lines, fileNames[0], &p)
-	m := mf.build(thermoLines, thermoR != nil, transportLines, transport != nil, fileNames, &p)
+	m, noThermo := mf.build(thermoLines, thermoR != nil, transportLines, transport != nil, fileNames, &p)
 	vprobs, _ := m.Validate()
-	p.list = append(p.list, vprobs...)
+	for _, q := range vprobs {
+		// Species without a thermo record were reported above, naming the
+		// files searched; Validate's consequences for them add nothing.
+		if k := m.SpeciesIndex(speciesOfProblem(q)); k >= 0 && noThermo[k] && q.Pos == m.Species[k].Origin {
+			continue
+		}
+		p.list = append(p.list, q)
+	}
 	probs, verr := p.result()
 	return m, probs, verr
 }
@@ -175,7 +182,11 @@ func scanMechanism(lines []srcLine, file string, p *problemList) *mechFile {
 				state = mf.addSpecies(rest, pos, p, state)
 			case "THERMO", "THER":
 				mf.hasThermo = true
-				recs, next, ended := parseThermoBlock(lines, i+1, file, p)
+				var wanted func(string) bool
+				if mf.sawSpecies {
+					wanted = func(n string) bool { return isSpecies(mf.index, n) }
+				}
+				recs, next, ended := parseThermoBlock(lines, i+1, file, wanted, p)
 				if !ended {
 					p.warnf(pos, "THERMO block has no END line (read to end of file)")
 				}
@@ -299,9 +310,24 @@ func leadingComment(lines []srcLine) string {
 	return strings.Join(out, "\n")
 }
 
-// build attaches thermo and transport data and completes the reactions.
+// speciesOfProblem returns the quoted species name of a Validate message
+// about a species ("species \"X\" ..."), or "".
+func speciesOfProblem(q chem.Problem) string {
+	rest, ok := strings.CutPrefix(q.Message, "species \"")
+	if !ok {
+		return ""
+	}
+	name, _, ok := strings.Cut(rest, "\"")
+	if !ok {
+		return ""
+	}
+	return name
+}
+
+// build attaches thermo and transport data and completes the reactions. It
+// also reports which species have no thermo record.
 func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines []srcLine, haveTransport bool,
-	files [3]string, p *problemList) *chem.Mechanism {
+	files [3]string, p *problemList) (*chem.Mechanism, map[int]bool) {
 	m := &chem.Mechanism{Name: strings.TrimSuffix(filepath.Base(files[0]), filepath.Ext(files[0])),
 		Description: mf.description, Elements: mf.elements}
 	noPos := chem.Position{File: mf.file}
@@ -323,7 +349,7 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 	}
 	if haveThermo {
 		sources = append(sources, files[1])
-		for _, r := range readThermoFile(thermoLines, files[1], p) {
+		for _, r := range readThermoFile(thermoLines, files[1], func(n string) bool { return isSpecies(mf.index, n) }, p) {
 			if _, dup := records[strings.ToUpper(r.Name)]; !dup {
 				records[strings.ToUpper(r.Name)] = r
 			}
@@ -344,7 +370,8 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 			trans[strings.ToUpper(n)] = t
 		}
 	}
-	for _, d := range mf.species {
+	noThermo := map[int]bool{}
+	for k, d := range mf.species {
 		sp := chem.Species{Origin: d.pos}
 		sp.Name = d.name
 		if rec, ok := records[strings.ToUpper(d.name)]; ok {
@@ -357,6 +384,7 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 			sp.Origin = rec.Origin
 		} else {
 			p.errorf(d.pos, "species '%s' has no thermo record (searched %s)", d.name, searched)
+			noThermo[k] = true
 		}
 		if haveTransport {
 			if t, ok := trans[strings.ToUpper(d.name)]; ok {
@@ -375,7 +403,7 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 		}
 	}
 	checkDuplicatePartners(m, p)
-	return m
+	return m, noThermo
 }
 
 // checkGeometry warns when the transport geometry contradicts the atom count.

@@ -38,7 +38,7 @@ func ReadThermo(r io.Reader, file string) ([]ThermoRecord, []chem.Problem, error
 		return nil, nil, err
 	}
 	var p problemList
-	recs := readThermoFile(lines, file, &p)
+	recs := readThermoFile(lines, file, nil, &p)
 	// Inside a mechanism, Validate reports jumps of the species it uses.
 	for _, r := range recs {
 		if j := r.Thermo.MidpointJump(); j > thermo.MidpointJumpTolerance {
@@ -49,7 +49,7 @@ func ReadThermo(r io.Reader, file string) ([]ThermoRecord, []chem.Problem, error
 	return recs, probs, verr
 }
 
-func readThermoFile(lines []srcLine, file string, p *problemList) []ThermoRecord {
+func readThermoFile(lines []srcLine, file string, wanted func(string) bool, p *problemList) []ThermoRecord {
 	i := 0
 	for i < len(lines) && stripComment(lines[i].text) == "" {
 		i++
@@ -63,7 +63,7 @@ func readThermoFile(lines []srcLine, file string, p *problemList) []ThermoRecord
 	} else {
 		p.warnf(chem.Position{File: file, Line: lines[i].num}, "no THERMO header line; reading records from here")
 	}
-	recs, next, ended := parseThermoBlock(lines, i, file, p)
+	recs, next, ended := parseThermoBlock(lines, i, file, wanted, p)
 	if !ended {
 		p.warnf(chem.Position{File: file, Line: lastLine(lines)}, "thermo block has no END line (read to end of file)")
 	}
@@ -99,8 +99,23 @@ func isBlockKeyword(w string) bool {
 
 // parseThermoBlock reads records from lines[i:] (the line after the THERMO
 // keyword) up to END. It returns the records, the index after END (or
-// after the last line read) and whether END was seen.
-func parseThermoBlock(lines []srcLine, i int, file string, p *problemList) (recs []ThermoRecord, next int, ended bool) {
+// after the last line read) and whether END was seen. When wanted is
+// non-nil, defects of records for species it rejects are only warnings:
+// thermo databases carry many species a mechanism does not use.
+func parseThermoBlock(lines []srcLine, i int, file string, wanted func(string) bool, p *problemList) (recs []ThermoRecord, next int, ended bool) {
+	whole := p
+	var local problemList
+	p = &local
+	flush := func(name string) {
+		for _, q := range local.list {
+			if wanted != nil && !wanted(name) {
+				q.Warning = true
+			}
+			whole.list = append(whole.list, q)
+		}
+		local.list = local.list[:0]
+	}
+	defer flush("")
 	var defaults [3]float64 // low, mid, high; zero when not given
 	tabWarned := false
 	seen := map[string]int{} // upper-case name -> line
@@ -150,19 +165,25 @@ func parseThermoBlock(lines []srcLine, i int, file string, p *problemList) (recs
 			rec[j], nums[j] = text(k), lines[k].num
 			k++
 		}
+		name := recordName(rec[0])
 		if truncated {
-			p.errorf(pos, "truncated thermo record %q: expected 4 lines, the record ends early", recordName(rec[0]))
+			p.errorf(pos, "truncated thermo record %q: expected 4 lines, the record ends early", name)
+			flush(name)
 			i = skip(k)
 			continue
 		}
 		i = skip(k)
 		tr, ok := parseRecord(rec, nums, defaults, pos, p)
+		flush(name)
 		if !ok {
 			continue
 		}
 		key := strings.ToUpper(tr.Name)
 		if at, dup := seen[key]; dup {
-			p.warnf(pos, "species %q has a second thermo record; the first (line %d) is used", tr.Name, at)
+			if wanted == nil || wanted(tr.Name) {
+				p.warnf(pos, "species %q has a second thermo record; the first (line %d) is used", tr.Name, at)
+				flush(tr.Name)
+			}
 			continue
 		}
 		seen[key] = pos.Line
