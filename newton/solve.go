@@ -203,7 +203,8 @@ type Result struct {
 	// SolveTime in the block-tridiagonal back-substitutions.
 	ResidualTime, JacobianTime, FactorTime, SolveTime time.Duration
 	// StepNorm is the scaled max norm of the last steady Newton step and
-	// ResidualNorm is max_i |F_i| at the returned u.
+	// ResidualNorm is max_i |F_i| at the returned u (+Inf if the residual
+	// could not be evaluated at the initial state).
 	StepNorm, ResidualNorm float64
 }
 
@@ -279,7 +280,10 @@ func Solve(p Problem, u []float64, opt Options) (Result, error) {
 	}
 	s := newSolver(p, n, b, opt)
 	err := s.run(u)
-	s.res.ResidualNorm = maxAbs(s.f)
+	s.res.ResidualNorm = math.Inf(1)
+	if s.haveResidual {
+		s.res.ResidualNorm = maxAbs(s.f)
+	}
 	return s.res, err
 }
 
@@ -299,7 +303,8 @@ type solver struct {
 	factored bool // J's factors match its current values
 	jacAge   int  // accepted steps since J was evaluated
 
-	steadySteps int // accepted steady Newton steps, for Event.Iteration
+	steadySteps  int  // accepted steady Newton steps, for Event.Iteration
+	haveResidual bool // s.f holds F at the accepted state
 
 	transient bool
 	applied   []float64 // diagonal shift currently added to J.Diag
@@ -335,6 +340,7 @@ func (s *solver) run(u []float64) error {
 	if err := s.residual(u, s.f); err != nil {
 		return fmt.Errorf("%w: residual at the initial state: %w", ErrNotConverged, err)
 	}
+	s.haveResidual = true
 	ok, why := s.newton(u, s.opt.MaxNewtonIterations)
 	if ok {
 		s.res.Converged = true

@@ -348,6 +348,11 @@ func TestSolveErrors(t *testing.T) {
 		{"NaN start", p, append(make([]float64, 10), math.NaN()), good, "initial state"},
 		{"NaN residual", &nanProblem{bratu{lambda: 3, x: uniformGrid(11)}}, make([]float64, 11), good, "residual is NaN"},
 	}
+	failing := &failingAway{cubicChain{n: 2}, []float64{9, 9, 9, 9}}
+	res, err := Solve(failing, []float64{1, 1, 1, 1}, DefaultOptions(2))
+	if !errors.Is(err, errAway) || !errors.Is(err, ErrNotConverged) || !math.IsInf(res.ResidualNorm, 1) {
+		t.Errorf("residual failing at the start: error %v, ResidualNorm %g; want ErrNotConverged wrapping %v and +Inf", err, res.ResidualNorm, errAway)
+	}
 	for _, tc := range tests {
 		_, err := Solve(tc.p, tc.u, tc.opt())
 		if err == nil || !strings.Contains(err.Error(), tc.want) {
