@@ -578,8 +578,9 @@ func (s *solver) failure(nf *newtonFailure, maxIter int) error {
 		return fmt.Errorf("bounds allow only damping %.3g (point %d, component %d at its bound)", nf.lam, nf.at/s.b, nf.at%s.b)
 	case failIterations:
 		return fmt.Errorf("no convergence in %d Newton iterations (last step norm %.3g, contraction %.3g)", maxIter, nf.s0, nf.theta)
+	case failNone:
 	}
-	return fmt.Errorf("no Newton iteration allowed")
+	return fmt.Errorf("no Newton step was attempted")
 }
 
 // newton runs at most maxIter damped Newton iterations on the current
