@@ -55,7 +55,7 @@ type Progress struct {
 // DefaultSettings returns the settings used when a case does not override them.
 func DefaultSettings() Settings {
 	c := grid.DefaultCriteria()
-	c.Slope, c.Curve, c.Ratio = 0.06, 0.12, 2.5
+	c.Slope, c.Curve, c.Ratio = 0.05, 0.07, 2.5
 	if c.MaxPoints == 0 {
 		c.MaxPoints = 1500
 	}

@@ -1,0 +1,101 @@
+package main
+
+import (
+	_ "embed"
+	"errors"
+	"fmt"
+	"io"
+	"path/filepath"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"flame1d/casefile"
+	"flame1d/output"
+	"flame1d/study"
+)
+
+//go:embed cases/demo-methane-air.toml
+var demoCase []byte
+
+func newRunCmd() *cobra.Command {
+	var (
+		outDir string
+		asJSON bool
+		quiet  bool
+		demo   bool
+	)
+	cmd := &cobra.Command{
+		Use:   "run [CASE.toml]",
+		Short: "Solve one freely propagating premixed flame",
+		Long: `Solve the steady 1-D freely propagating premixed flame described by a case
+file and write its profiles and summary.
+
+Writes into the output folder (-o, or [output] directory in the case, or a
+folder named after the case file):
+  profile.csv    x, T, u, rho, heat-release rate and all mole fractions
+  summary.json   flame speed, burned and adiabatic temperature, thickness, ...
+  summary.txt    the same, for people
+
+Progress goes to stderr (silence it with -q). A failed solve exits non-zero
+and writes nothing.
+
+` + output.SafetyNote,
+		Example: `  flame1d run --demo
+  flame1d run examples/methane-air.toml -o out/ch4
+  flame1d run case.toml --json -q > summary.json`,
+		Args: cobra.MaximumNArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			var c *casefile.Case
+			var err error
+			switch {
+			case demo && len(args) == 0:
+				c, err = casefile.Parse(demoCase, "built-in demo case")
+			case len(args) == 1:
+				c, err = casefile.ReadFile(args[0])
+			default:
+				return errors.New("give a case file, or --demo for the built-in methane/air case")
+			}
+			if err != nil {
+				return err
+			}
+			if outDir == "" {
+				outDir = c.Output.Directory
+			}
+			if outDir == "" && len(args) == 1 {
+				outDir = strings.TrimSuffix(filepath.Base(args[0]), filepath.Ext(args[0])) + "-out"
+			}
+			if outDir == "" {
+				outDir = "flame1d-out"
+			}
+			var progress io.Writer = cmd.ErrOrStderr()
+			if quiet {
+				progress = nil
+			}
+			st, err := study.New(c, progress)
+			if err != nil {
+				return err
+			}
+			res, err := st.Solve(st.BaseCondition(), nil)
+			if err != nil {
+				return err
+			}
+			if err := study.WriteFlame(outDir, res); err != nil {
+				return err
+			}
+			if asJSON {
+				return res.Summary.WriteJSON(cmd.OutOrStdout())
+			}
+			if err := res.Summary.WriteText(cmd.OutOrStdout()); err != nil {
+				return err
+			}
+			fmt.Fprintf(cmd.OutOrStdout(), "  results in              %s\n", outDir)
+			return nil
+		},
+	}
+	cmd.Flags().StringVarP(&outDir, "output", "o", "", "output folder")
+	cmd.Flags().BoolVar(&asJSON, "json", false, "print the summary as JSON on stdout")
+	cmd.Flags().BoolVarP(&quiet, "quiet", "q", false, "no progress messages on stderr")
+	cmd.Flags().BoolVar(&demo, "demo", false, "solve the built-in stoichiometric methane/air case")
+	return cmd
+}

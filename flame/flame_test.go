@@ -1,0 +1,258 @@
+package flame_test
+
+import (
+	"math"
+	"testing"
+
+	"flame1d/builtin"
+	"flame1d/chem"
+	"flame1d/flame"
+	"flame1d/fuel"
+	"flame1d/thermo"
+)
+
+func mechanism(t testing.TB, name string) *chem.Mechanism {
+	t.Helper()
+	m, err := builtin.Mechanism(name)
+	if err != nil {
+		t.Fatalf("built-in mechanism %s: %v", name, err)
+	}
+	return m
+}
+
+func air() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
+
+// inlet builds the premixed inlet of fuel in air at phi, T, P.
+func inlet(t testing.TB, m *chem.Mechanism, fuelX map[string]float64, phi, T, P float64) flame.Inlet {
+	t.Helper()
+	set, err := fuel.SpeciesSet(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ch, err := fuel.Premixed(m, set, fuelX, air(), phi)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return flame.Inlet{T: T, P: P, Y: ch.Y}
+}
+
+func solve(t testing.TB, s *flame.Solver, in flame.Inlet, set flame.Settings) (*flame.Solution, *flame.Profile) {
+	t.Helper()
+	sol, err := s.Solve(in, set)
+	if err != nil {
+		t.Fatalf("solve: %v", err)
+	}
+	p, err := s.Profile(sol)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return sol, p
+}
+
+// Hydrogen/air, phi = 1, 1 atm, 298 K. Published measurements of the
+// unstretched flame speed scatter between about 2.1 and 2.3 m/s: Tse, Zhu &
+// Law (2000, Proc. Combust. Inst. 28) ~2.2 m/s; Kwon & Faeth (2001, Combust.
+// Flame 124) ~2.1 m/s; Dahoe (2005, J. Loss Prev. Process Ind. 18) ~2.2-2.3
+// m/s (all from memory). The band is widened by 0.1 m/s on both sides for
+// the model's own uncertainty.
+func TestHydrogenAirFlameSpeed(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solve")
+	}
+	m := mechanism(t, "h2o2")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	sol, p := solve(t, s, in, flame.DefaultSettings())
+	t.Logf("H2/air phi=1: S_L = %.4f m/s, T_b = %.1f K, T_ad = %.1f K, %d points", p.FlameSpeed, p.BurnedT, sol.AdiabaticT, sol.Points())
+	if p.FlameSpeed < 2.0 || p.FlameSpeed > 2.4 {
+		t.Errorf("S_L = %.3f m/s, want 2.0-2.4 m/s", p.FlameSpeed)
+	}
+	checkConservation(t, s, sol)
+	if d := math.Abs(p.BurnedT - sol.AdiabaticT); d > 5 {
+		t.Errorf("burned T %.1f K differs from adiabatic equilibrium %.1f K by %.1f K (> 5 K)", p.BurnedT, sol.AdiabaticT, d)
+	}
+}
+
+// checkConservation asserts that the element mass fluxes are constant
+// through the flame. The finite-volume form of the species equations makes
+// this exact up to the Newton tolerance; 1e-6 relative to the inlet flux.
+func checkConservation(t *testing.T, s *flame.Solver, sol *flame.Solution) {
+	t.Helper()
+	els, flux, err := s.ElementFluxes(sol, flame.DefaultSettings().ThermalDiffusion)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := sol.MassFlux()
+	for e, el := range els {
+		ref := flux[0][e]
+		if math.Abs(ref) < 1e-12*m {
+			continue // element absent from the mixture
+		}
+		worst := 0.0
+		for j := range flux {
+			worst = math.Max(worst, math.Abs(flux[j][e]-ref)/math.Abs(ref))
+		}
+		if worst > 1e-6 {
+			t.Errorf("element %s flux varies by %.2g relative through the flame (> 1e-6)", el, worst)
+		}
+	}
+}
+
+// Methane/air with GRI-Mech 3.0 at 1 atm, 298 K. Measured unstretched flame
+// speeds (Vagelopoulos & Egolfopoulos 1998, Proc. Combust. Inst. 27;
+// Bosschaart & de Goey 2004, Combust. Flame 136; Varea et al. 2012, Proc.
+// Combust. Inst. 34; all from memory) scatter around 0.27-0.30 m/s at
+// phi = 0.8, 0.35-0.39 m/s at phi = 1.0 and 0.30-0.34 m/s at phi = 1.2. The
+// bands below add about 0.02 m/s for that scatter and the model's error. The
+// maximum of S_L(phi) lies on the slightly rich side (phi ~ 1.05-1.1).
+func TestMethaneAirFlameSpeeds(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m := mechanism(t, "gri30")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct{ phi, lo, hi float64 }{
+		{0.8, 0.25, 0.32},
+		{1.0, 0.33, 0.41},
+		{1.1, 0.33, 0.42},
+		{1.2, 0.28, 0.36},
+	}
+	speed := map[float64]float64{}
+	var prev *flame.Solution
+	for _, c := range cases {
+		in := inlet(t, m, map[string]float64{"CH4": 1}, c.phi, 298, thermo.OneAtmosphere)
+		sol, err := s.Solve(in, flame.DefaultSettings())
+		if err != nil {
+			t.Fatalf("phi=%g: %v", c.phi, err)
+		}
+		p, err := s.Profile(sol)
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("CH4/air phi=%.1f: S_L = %.4f m/s, T_b = %.1f K, T_ad = %.1f K, %d points, %.2f s",
+			c.phi, p.FlameSpeed, p.BurnedT, sol.AdiabaticT, sol.Points(), sol.Stats.WallTime.Seconds())
+		if p.FlameSpeed < c.lo || p.FlameSpeed > c.hi {
+			t.Errorf("phi=%g: S_L = %.3f m/s, want %.2f-%.2f m/s", c.phi, p.FlameSpeed, c.lo, c.hi)
+		}
+		speed[c.phi] = p.FlameSpeed
+		if c.phi == 1.0 {
+			checkConservation(t, s, sol)
+		}
+		prev = sol
+	}
+	_ = prev
+	if !(speed[1.1] > speed[1.0] && speed[1.1] > speed[1.2] && speed[1.0] > speed[0.8]) {
+		t.Errorf("S_L(phi) should peak on the rich side: %v", speed)
+	}
+}
+
+// Grid convergence: halving the slope and curvature criteria changes S_L by
+// less than 1%. The observed order p follows from three grids with criteria
+// c, c/2, c/4: p = log2((S1 - S2)/(S2 - S3)) (Roache 1998, "Verification and
+// Validation in Computational Science and Engineering").
+func TestGridConvergenceHydrogen(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m := mechanism(t, "h2o2")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	var S [3]float64
+	for i, f := range []float64{1, 0.5, 0.25} {
+		set := flame.DefaultSettings()
+		set.Grid.Slope *= f
+		set.Grid.Curve *= f
+		sol, p := solve(t, s, in, set)
+		S[i] = p.FlameSpeed
+		t.Logf("criteria x%.2f: S_L = %.5f m/s on %d points", f, p.FlameSpeed, sol.Points())
+	}
+	if d := math.Abs(S[1]-S[0]) / S[1]; d > 0.01 {
+		t.Errorf("halving the criteria changed S_L by %.3g%% (> 1%%)", 100*d)
+	}
+	if S[1] != S[2] && S[0] != S[1] {
+		t.Logf("observed order of grid convergence: %.2f", math.Log2(math.Abs((S[0]-S[1])/(S[1]-S[2]))))
+	}
+}
+
+// Pressure and preheat trends of CH4/air at phi = 1: S_L falls roughly as
+// P^-0.5 between 1 and 10 atm (exponent -0.3 to -0.6 is typical of methane
+// flames; common practice, no source), and preheating from 298 to 400 K
+// raises it (S_L ~ T_u^1.6-2 for methane; common practice, no source).
+func TestMethanePressureAndPreheatTrends(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m := mechanism(t, "gri30")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ch4 := map[string]float64{"CH4": 1}
+	_, p1 := solve(t, s, inlet(t, m, ch4, 1, 298, thermo.OneAtmosphere), flame.DefaultSettings())
+	_, p10 := solve(t, s, inlet(t, m, ch4, 1, 298, 10*thermo.OneAtmosphere), flame.DefaultSettings())
+	_, pHot := solve(t, s, inlet(t, m, ch4, 1, 400, thermo.OneAtmosphere), flame.DefaultSettings())
+	beta := math.Log(p10.FlameSpeed/p1.FlameSpeed) / math.Log(10)
+	alpha := math.Log(pHot.FlameSpeed/p1.FlameSpeed) / math.Log(400.0/298)
+	t.Logf("S_L(1 atm) = %.4f, S_L(10 atm) = %.4f m/s: pressure exponent %.3f", p1.FlameSpeed, p10.FlameSpeed, beta)
+	t.Logf("S_L(400 K) = %.4f m/s: temperature exponent %.3f", pHot.FlameSpeed, alpha)
+	if beta > -0.3 || beta < -0.7 {
+		t.Errorf("pressure exponent %.3f, want about -0.5 (-0.7 to -0.3)", beta)
+	}
+	if alpha < 1.3 || alpha > 2.3 {
+		t.Errorf("preheat exponent %.3f, want 1.3-2.3", alpha)
+	}
+}
+
+// Continuation: a solution restarted at a nearby condition converges to the
+// same flame as a cold start, to within the solver tolerance.
+func TestContinuationMatchesColdStart(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m := mechanism(t, "h2o2")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	h2 := map[string]float64{"H2": 1}
+	base, _ := solve(t, s, inlet(t, m, h2, 1.0, 298, thermo.OneAtmosphere), flame.DefaultSettings())
+	next := inlet(t, m, h2, 0.8, 320, 1.5*thermo.OneAtmosphere)
+	cont, err := s.SolveFrom(base, next, flame.DefaultSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	pc, _ := s.Profile(cont)
+	_, pcold := solve(t, s, next, flame.DefaultSettings())
+	// The two solves end on different grids that both pass the refinement
+	// criteria, so they agree to the grid-discretisation error (under 1% at
+	// the default criteria, TestGridConvergenceHydrogen), not to the Newton
+	// tolerance.
+	if d := math.Abs(pc.FlameSpeed-pcold.FlameSpeed) / pcold.FlameSpeed; d > 5e-3 {
+		t.Errorf("continuation S_L %.5f vs cold start %.5f (rel. diff %.2g > 5e-3)", pc.FlameSpeed, pcold.FlameSpeed, d)
+	}
+	t.Logf("continuation %.5f m/s in %d Newton iterations; cold start %.5f m/s", pc.FlameSpeed, cont.Stats.NewtonIterations, pcold.FlameSpeed)
+}
+
+// A mixture that cannot burn is refused with an explanation, not a number.
+func TestNonFlammableMixtureIsRefused(t *testing.T) {
+	m := mechanism(t, "h2o2")
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in := inlet(t, m, map[string]float64{"H2": 1}, 0.02, 298, thermo.OneAtmosphere)
+	if _, err := s.Solve(in, flame.DefaultSettings()); err == nil {
+		t.Fatal("phi = 0.02 hydrogen/air solved; want a not-flammable error")
+	} else {
+		t.Logf("refused as expected: %v", err)
+	}
+}

@@ -1,0 +1,208 @@
+// Package study turns a case into solved flames: it loads the mechanism,
+// builds the solver once, forms the premixed inlet at any condition and
+// solves it, cold or by continuation from a neighbouring solution. The CLI's
+// run, sweep and compare commands all go through it.
+package study
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"flame1d/builtin"
+	"flame1d/casefile"
+	"flame1d/chem"
+	"flame1d/flame"
+	"flame1d/fuel"
+	"flame1d/output"
+	"flame1d/thermo"
+)
+
+// Study is a case prepared for solving: mechanism, thermo set and solver.
+// A Study may be used by one goroutine at a time; make one per goroutine for
+// parallel work (NewStudy is cheap compared with a flame).
+type Study struct {
+	Case      *casefile.Case
+	Mechanism *chem.Mechanism
+	Set       *thermo.SpeciesSet
+	Solver    *flame.Solver
+	Settings  flame.Settings
+}
+
+// Condition is one point of a study: equivalence ratio, unburned
+// temperature (K) and pressure (Pa).
+type Condition struct {
+	Phi, T, P float64
+}
+
+func (c Condition) String() string {
+	return fmt.Sprintf("phi=%g T=%g K P=%g Pa", c.Phi, c.T, c.P)
+}
+
+// Result is one solved flame with its derived quantities.
+type Result struct {
+	Condition Condition
+	Solution  *flame.Solution
+	Profile   *flame.Profile
+	Summary   *output.FlameSummary
+}
+
+// LoadMechanism resolves a case's mechanism: a built-in name, or a path
+// relative to the case file's folder.
+func LoadMechanism(c *casefile.Case) (*chem.Mechanism, error) {
+	name := c.Mechanism
+	if strings.HasSuffix(name, ".toml") && !filepath.IsAbs(name) && c.File != "" {
+		if _, err := os.Stat(name); err != nil {
+			name = filepath.Join(filepath.Dir(c.File), name)
+		}
+	}
+	m, err := builtin.Load(name)
+	if err != nil {
+		return nil, fmt.Errorf("%s: mechanism: %w", c.File, err)
+	}
+	return m, nil
+}
+
+// New prepares a case. progress, when non-nil, receives the solver's stage
+// messages.
+func New(c *casefile.Case, progress io.Writer) (*Study, error) {
+	mech, err := LoadMechanism(c)
+	if err != nil {
+		return nil, err
+	}
+	return NewWithMechanism(c, mech, progress)
+}
+
+// NewWithMechanism prepares a case on an already loaded mechanism.
+func NewWithMechanism(c *casefile.Case, mech *chem.Mechanism, progress io.Writer) (*Study, error) {
+	set, err := fuel.SpeciesSet(mech)
+	if err != nil {
+		return nil, err
+	}
+	solver, err := flame.NewSolver(mech)
+	if err != nil {
+		return nil, err
+	}
+	return &Study{Case: c, Mechanism: mech, Set: set, Solver: solver, Settings: Settings(c, progress)}, nil
+}
+
+// Settings maps a case's [grid] and [solver] tables onto solver settings.
+func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
+	s := flame.DefaultSettings()
+	g := c.Grid
+	if g.InitialPoints > 0 {
+		s.InitialPoints = g.InitialPoints
+	}
+	if g.Slope > 0 {
+		s.Grid.Slope = g.Slope
+	}
+	if g.Curve > 0 {
+		s.Grid.Curve = g.Curve
+	}
+	if g.Ratio > 0 {
+		s.Grid.Ratio = g.Ratio
+	}
+	s.Grid.Prune = g.Prune
+	if g.MaxPoints > 0 {
+		s.Grid.MaxPoints = g.MaxPoints
+	}
+	s.DomainLength = g.DomainLength
+	s.ThermalDiffusion = c.Solver.ThermalDiffusion
+	if c.Solver.RelativeTol > 0 {
+		s.RelTol = c.Solver.RelativeTol
+	}
+	if c.Solver.AnchorRise > 0 {
+		s.AnchorRise = c.Solver.AnchorRise
+	}
+	s.Workers = c.Solver.Workers
+	if progress != nil {
+		start := time.Now()
+		s.Progress = func(p flame.Progress) {
+			if p.Message == "" {
+				return
+			}
+			fmt.Fprintf(progress, "[%6.2fs] %-18s %4d points  %s\n", time.Since(start).Seconds(), p.Stage, p.Points, p.Message)
+		}
+	}
+	return s
+}
+
+// BaseCondition is the case's own condition.
+func (s *Study) BaseCondition() Condition {
+	return Condition{Phi: s.Case.EquivalenceRatio, T: s.Case.Temperature, P: s.Case.Pressure}
+}
+
+// Inlet forms the premixed inlet at a condition.
+func (s *Study) Inlet(c Condition) (flame.Inlet, error) {
+	charge, err := fuel.Premixed(s.Mechanism, s.Set, s.Case.Fuel, s.Case.Oxidizer, c.Phi)
+	if err != nil {
+		return flame.Inlet{}, fmt.Errorf("%s: mixture: %w", s.Case.File, err)
+	}
+	return flame.Inlet{T: c.T, P: c.P, Y: charge.Y}, nil
+}
+
+// Solve solves the flame at a condition; start, when non-nil, is a
+// neighbouring solution to continue from (it falls back to a cold start if
+// continuation fails).
+func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
+	in, err := s.Inlet(c)
+	if err != nil {
+		return nil, err
+	}
+	var sol *flame.Solution
+	if start != nil {
+		sol, err = s.Solver.SolveFrom(start, in, s.Settings)
+		if err != nil {
+			sol, err = s.Solver.Solve(in, s.Settings)
+		}
+	} else {
+		sol, err = s.Solver.Solve(in, s.Settings)
+	}
+	if err != nil {
+		if errors.Is(err, flame.ErrNotConverged) {
+			return nil, fmt.Errorf("%s (%v): %w\nwhat to try: a finer initial grid ([grid] initial_points = 60), a longer domain ([grid] domain_length), "+
+				"or a condition closer to stoichiometric; very lean or rich mixtures may be outside the flammability limits of the model", s.Case.File, c, err)
+		}
+		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
+	}
+	prof, err := s.Solver.Profile(sol)
+	if err != nil {
+		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
+	}
+	cs := s.Case
+	sum := &output.FlameSummary{
+		Title: cs.Title, Mechanism: cs.Mechanism, Fuel: cs.Fuel, Oxidizer: cs.Oxidizer,
+		EquivalenceRatio: c.Phi, UnburnedTemperatureK: c.T, PressurePa: c.P,
+		Converged: true, FlameSpeed: prof.FlameSpeed, MassFlux: prof.MassFlux, BurnedTemperature: prof.BurnedT,
+		AdiabaticTemperature: sol.AdiabaticT, ThermalThickness: prof.ThermalThick, PeakHeatReleaseX: prof.PeakHeatReleaseX,
+		GridPoints: sol.Points(), DomainLength: sol.X[len(sol.X)-1] - sol.X[0],
+		NewtonIterations: sol.Stats.NewtonIterations, TimeSteps: sol.Stats.TimeSteps,
+		JacobianEvaluations: sol.Stats.JacobianEvaluations, Refinements: sol.Stats.Refinements,
+		WallTimeS: sol.Stats.WallTime.Seconds(), Note: output.SafetyNote,
+	}
+	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum}, nil
+}
+
+// WriteFlame writes profile.csv, summary.txt and summary.json into dir. Each
+// file is atomic; summary.json is written last, so its presence marks a
+// complete set.
+func WriteFlame(dir string, r *Result) error {
+	comments := []string{
+		"flame1d profile: " + r.Summary.Title,
+		fmt.Sprintf("mechanism %s; equivalence ratio %g; unburned %.2f K; %.6g Pa; flame speed %s m/s",
+			r.Summary.Mechanism, r.Summary.EquivalenceRatio, r.Summary.UnburnedTemperatureK, r.Summary.PressurePa,
+			output.FormatFloat(r.Summary.FlameSpeed)),
+		output.SafetyNote,
+	}
+	if err := output.WriteFileAtomic(filepath.Join(dir, "profile.csv"), output.ProfileTable(r.Profile, comments).WriteCSV); err != nil {
+		return err
+	}
+	if err := output.WriteFileAtomic(filepath.Join(dir, "summary.txt"), r.Summary.WriteText); err != nil {
+		return err
+	}
+	return output.WriteFileAtomic(filepath.Join(dir, "summary.json"), r.Summary.WriteJSON)
+}
