@@ -139,8 +139,8 @@ func falloffSuffix(side string) (found bool, name, rest string, err error) {
 	return found, name, rest, nil
 }
 
-// parseSide splits one side into participants. It returns the number of
-// generic third-body terms (M) found.
+// parseSide splits one side into participants, a repeated species merged
+// into one. It returns the number of generic third-body terms (M) found.
 func parseSide(side string, index func(string) int) ([]chem.Participant, int, error) {
 	if strings.TrimSpace(side) == "" {
 		return nil, 0, errors.New("empty")
@@ -191,12 +191,25 @@ func parseSide(side string, index func(string) int) ([]chem.Participant, int, er
 			nm++
 			continue
 		}
-		out = append(out, chem.Participant{Species: terms[i].species, Coefficient: terms[i].coefficient})
+		out = addParticipant(out, terms[i].species, terms[i].coefficient)
 	}
 	if len(out) == 0 {
 		return nil, nm, errors.New("no species")
 	}
 	return out, nm, nil
+}
+
+// addParticipant adds c of species k to a side, merging a repeated species
+// into its first appearance ("H + H" is "2 H"), as the keyword-block
+// importer does, so one equation text gives one step in both readers.
+func addParticipant(side []chem.Participant, k int, c float64) []chem.Participant {
+	for i := range side {
+		if side[i].Species == k {
+			side[i].Coefficient += c
+			return side
+		}
+	}
+	return append(side, chem.Participant{Species: k, Coefficient: c})
 }
 
 // sideError explains why a side did not parse, naming the first term (split
@@ -209,8 +222,8 @@ func sideError(side string, index func(string) int) error {
 	for _, p := range parts {
 		if _, ok := parseTerm(p, index); !ok {
 			p = strings.TrimSpace(p)
-			if p == "" {
-				return fmt.Errorf("%q has an empty term", strings.TrimSpace(side))
+			if p == "" || strings.HasPrefix(p, "+") || strings.HasSuffix(p, "+") {
+				return fmt.Errorf("%q has an empty term (a stray '+')", strings.TrimSpace(side))
 			}
 			return fmt.Errorf("unknown species %q", p)
 		}

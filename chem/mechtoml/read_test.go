@@ -145,12 +145,12 @@ func TestReadHandWritten(t *testing.T) {
 	if f.Form != chem.Falloff || f.ThirdBody.Default != 1 || f.ThirdBody.Efficiencies[m.SpeciesIndex("H2O")] != 11 ||
 		!close(f.FalloffRate.Low.A, 6.366e20*1e-12, 1e-15) || !close(f.FalloffRate.High.A, 4.65084e12*1e-6, 1e-15) ||
 		f.FalloffRate.Troe == nil || f.FalloffRate.Troe.HasT2 || f.FalloffRate.Troe.T1 != 1e30 {
-		t.Errorf("falloff step read as %s", dumpReaction(&f))
+		t.Errorf("falloff step read as %s", describe(&f))
 	}
 	tb := m.Reactions[2]
 	if tb.Form != chem.ThreeBody || len(tb.Reactants) != 1 || tb.Reactants[0].Coefficient != 2 ||
 		!close(tb.Rate.A, 1.2e17*1e-12, 1e-15) || len(tb.ThirdBody.Efficiencies) != 3 {
-		t.Errorf("2O+M<=>O2+M read as %s", dumpReaction(&tb))
+		t.Errorf("2O+M<=>O2+M read as %s", describe(&tb))
 	}
 	h2 := m.Species[1]
 	if h2.Transport == nil || h2.Transport.Geometry != chem.Linear || !close(h2.Transport.Diameter, 2.92e-10, 1e-15) ||

@@ -2,9 +2,9 @@ package mechtoml
 
 import (
 	"bytes"
+	"math"
 	"os"
 	"path/filepath"
-	"reflect"
 	"strings"
 	"testing"
 
@@ -32,13 +32,8 @@ func TestRoundTripExact(t *testing.T) {
 			want.Reactions[i].Equation = "H2O2 + H <=> HO2 + H2"
 		}
 	}
-	normalize(want)
-	normalize(got)
-	if d := diffMechanisms(want, got); d != "" {
+	if d := Diff(want, got); d != "" {
 		t.Fatalf("round trip changed the mechanism: %s\n%s", d, numbered(text))
-	}
-	if !reflect.DeepEqual(want, got) {
-		t.Fatal("round trip changed the mechanism (DeepEqual)")
 	}
 	// Writing what was read gives the same text (the writer is a function of
 	// the model alone).
@@ -78,7 +73,7 @@ func TestWrittenUnits(t *testing.T) {
 		`phase = "condensed"`,
 		`[reaction.chemically_activated]`,
 		`[reaction.chebyshev]`,
-		"[8.684, 0.8, -0.1]", // log10 k in cm^3/mol/s, as an importer converted it
+		"[8.684, 0.8, -0.1]",                                    // log10 k in cm^3/mol/s, as an importer converted it
 		"k_units = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
 		`P_range = ["1000 Pa", "1e+07 Pa"]`,
 		`orders = {O2 = 0.8, H2O = 0.1, CH4 = 0.7}`,
@@ -149,6 +144,9 @@ func TestWriteRefusesLoss(t *testing.T) {
 		{"T2 without HasT2", func(m *chem.Mechanism) { m.Reactions[5].FalloffRate.Troe.T2 = 5 }, "HasT2"},
 		{"bad utf8 name", func(m *chem.Mechanism) { m.Name = "\xff" }, "UTF-8"},
 		{"ragged chebyshev", func(m *chem.Mechanism) { m.Reactions[11].ChebyshevRate.Coeffs[1] = []float64{1} }, "unequal"},
+		{"repeated participant", func(m *chem.Mechanism) {
+			m.Reactions[12].Products = []chem.Participant{{Species: 4, Coefficient: 1}, {Species: 4, Coefficient: 1}}
+		}, "appears twice"},
 		{"index out of range", func(m *chem.Mechanism) { m.Reactions[0].Reactants[0].Species = 99 }, "out of range"},
 	}
 	for _, c := range cases {
@@ -160,5 +158,39 @@ func TestWriteRefusesLoss(t *testing.T) {
 				t.Fatalf("Write error = %v, want one containing %q", err, c.want)
 			}
 		})
+	}
+}
+
+// TestDiff: the round-trip equality ignores only Origins and nil-vs-empty,
+// and sees a change of one ulp anywhere else.
+func TestDiff(t *testing.T) {
+	same := []func(m *chem.Mechanism){
+		func(m *chem.Mechanism) { m.Species[2].Origin = chem.Position{File: "x", Line: 9} },
+		func(m *chem.Mechanism) { m.Reactions[0].Orders = map[int]float64{} },
+		func(m *chem.Mechanism) { m.Reactions[7].ThirdBody.Efficiencies = map[int]float64{} },
+	}
+	for i, change := range same {
+		m := handBuilt()
+		change(m)
+		if d := Diff(handBuilt(), m); d != "" {
+			t.Errorf("change %d should not count: %s", i, d)
+		}
+	}
+	ulp := func(x float64) float64 { return math.Nextafter(x, math.Inf(1)) }
+	differ := []func(m *chem.Mechanism){
+		func(m *chem.Mechanism) { m.Species[2].Thermo.High[6] = ulp(m.Species[2].Thermo.High[6]) },
+		func(m *chem.Mechanism) { m.Species[0].Transport.Diameter = ulp(m.Species[0].Transport.Diameter) },
+		func(m *chem.Mechanism) { m.Reactions[5].FalloffRate.Troe.A = ulp(0.5) },
+		func(m *chem.Mechanism) { m.Reactions[3].ThirdBody.Efficiencies[1] = ulp(2.4) },
+		func(m *chem.Mechanism) { m.Reactions[11].ChebyshevRate.Coeffs[2][1] = ulp(0.02) },
+		func(m *chem.Mechanism) { m.Reactions[1].Duplicate = false },
+		func(m *chem.Mechanism) { m.Description += " " },
+	}
+	for i, change := range differ {
+		m := handBuilt()
+		change(m)
+		if d := Diff(handBuilt(), m); d == "" {
+			t.Errorf("change %d not seen", i)
+		}
 	}
 }

@@ -419,9 +419,15 @@ func (w *writer) equationText(r *chem.Reaction) (eqText, writtenAs string, err e
 	}
 	want := equation{reactants: r.Reactants, products: r.Products, reversible: r.Reversible, collider: col, specific: specific}
 	for _, side := range [][]chem.Participant{r.Reactants, r.Products} {
-		for _, p := range side {
+		for i, p := range side {
 			if p.Species < 0 || p.Species >= len(w.m.Species) {
 				return "", "", fmt.Errorf("species index %d out of range", p.Species)
+			}
+			for _, q := range side[:i] {
+				if q.Species == p.Species {
+					return "", "", fmt.Errorf("species %s appears twice on one side; merge it into one participant (an equation cannot keep them apart)",
+						w.m.Species[p.Species].Name)
+				}
 			}
 		}
 	}
