@@ -55,11 +55,17 @@ func caseInsensitiveIndex(m *chem.Mechanism, name string) int {
 
 // suggestion names the mechanism species closest to name (edit distance).
 func suggestion(m *chem.Mechanism, name string) string {
+	return nearestName(name, len(m.Species), func(i int) string { return m.Species[i].Name })
+}
+
+// nearestName suggests the closest of n names (edit distance at most 2),
+// or points to the species listing.
+func nearestName(name string, n int, nameAt func(int) string) string {
 	best, bestD := "", 1<<30
-	for i := range m.Species {
-		d := editDistance(strings.ToUpper(name), strings.ToUpper(m.Species[i].Name))
+	for i := 0; i < n; i++ {
+		d := editDistance(strings.ToUpper(name), strings.ToUpper(nameAt(i)))
 		if d < bestD {
-			best, bestD = m.Species[i].Name, d
+			best, bestD = nameAt(i), d
 		}
 	}
 	if best != "" && bestD <= 2 {
