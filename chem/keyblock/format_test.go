@@ -435,3 +435,14 @@ func FuzzReadMechanism(f *testing.F) {
 		}
 	})
 }
+
+// TestBlocksOnOneLine reads blocks closed and opened on the same line.
+func TestBlocksOnOneLine(t *testing.T) {
+	h := mechHeader("REACTIONS")
+	thermo := h[strings.Index(h, "THERMO ALL"):strings.LastIndex(h, "REACTIONS")]
+	text := "ELEMENTS H O END SPECIES H O OH END\n" + thermo + "REACTIONS\nH+O<=>OH 1e13 0 0\nEND\n"
+	m, probs, err := readText(t, text)
+	if err != nil || len(m.Elements) != 2 || len(m.Species) != 3 || len(m.Reactions) != 1 {
+		t.Fatalf("err %v; %d elements, %d species, %d reactions; %v", err, len(m.Elements), len(m.Species), len(m.Reactions), probs)
+	}
+}

@@ -128,7 +128,7 @@ type mechFile struct {
 	description string
 	elements    []string
 	species     []declared
-	index       speciesIndex
+	index       *speciesIndex
 	embedded    []ThermoRecord
 	hasThermo   bool
 	sawElements bool
@@ -148,7 +148,7 @@ const (
 
 // scanMechanism reads the blocks of a reactions file.
 func scanMechanism(lines []srcLine, file string, p *problemList) *mechFile {
-	mf := &mechFile{file: file, index: speciesIndex{}}
+	mf := &mechFile{file: file, index: newSpeciesIndex()}
 	mf.description = leadingComment(lines)
 	state := outside
 	var units rateUnits
@@ -159,73 +159,80 @@ func scanMechanism(lines []srcLine, file string, p *problemList) *mechFile {
 		}
 	}
 	blockNames := map[blockState]string{inElements: "ELEMENTS", inSpecies: "SPECIES", inReactions: "REACTIONS"}
-	for i := 0; i < len(lines); i++ {
-		ln := lines[i]
-		s := stripComment(ln.text)
-		if s == "" {
-			continue
-		}
+	// handle processes the text s of line i; it returns text left over on
+	// the same line after a block's END (e.g. "ELEMENTS H O END SPECIES ...").
+	handle := func(i *int, s string) string {
+		ln := lines[*i]
 		pos := chem.Position{File: file, Line: ln.num}
 		w := firstWord(s)
 		if isBlockKeyword(w) {
 			if state != outside {
-				endBlock(i, blockNames[state])
+				endBlock(*i, blockNames[state])
 				state = outside
 			}
 			rest := strings.Fields(s)[1:]
 			switch w {
 			case "ELEMENTS", "ELEM":
 				state, mf.sawElements = inElements, true
-				state = mf.addElements(rest, pos, p, state)
+				var left string
+				state, left = mf.addElements(rest, pos, p, state)
+				return left
 			case "SPECIES", "SPEC":
 				state, mf.sawSpecies = inSpecies, true
-				state = mf.addSpecies(rest, pos, p, state)
+				var left string
+				state, left = mf.addSpecies(rest, pos, p, state)
+				return left
 			case "THERMO", "THER":
 				mf.hasThermo = true
 				var wanted func(string) bool
 				if mf.sawSpecies {
 					wanted = func(n string) bool { return isSpecies(mf.index, n) }
 				}
-				recs, next, ended := parseThermoBlock(lines, i+1, file, wanted, p)
+				recs, next, ended := parseThermoBlock(lines, *i+1, file, wanted, p)
 				if !ended {
 					p.warnf(pos, "THERMO block has no END line (read to end of file)")
 				}
 				mf.embedded = append(mf.embedded, recs...)
-				i = next - 1
+				*i = next - 1
 			case "REACTIONS", "REAC":
 				state = inReactions
 				units = parseUnitWords(rest, pos, p)
 			}
-			continue
+			return ""
 		}
+		var left string
 		switch state {
 		case outside:
 			if w == "END" {
 				p.warnf(pos, "END outside any block ignored")
-				continue
+				return strings.Join(strings.Fields(s)[1:], " ")
 			}
 			p.errorf(pos, "unexpected text outside any block: %q (expected ELEMENTS, SPECIES, THERMO or REACTIONS)", s)
 		case inElements:
-			state = mf.addElements(strings.Fields(s), pos, p, state)
+			state, left = mf.addElements(strings.Fields(s), pos, p, state)
 		case inSpecies:
-			state = mf.addSpecies(strings.Fields(s), pos, p, state)
+			state, left = mf.addSpecies(strings.Fields(s), pos, p, state)
 		case inReactions:
-			if w == "END" {
+			switch {
+			case w == "END":
 				state = outside
 				current = nil
-				continue
-			}
-			if strings.Contains(s, "=") {
+				left = strings.Join(strings.Fields(s)[1:], " ")
+			case strings.Contains(s, "="):
 				current = parseEquationLine(s, pos, mf.index, p)
 				mf.reactions = append(mf.reactions, current)
 				mf.units = append(mf.units, units)
-				continue
-			}
-			if current == nil {
+			case current == nil:
 				p.errorf(pos, "auxiliary line %q before any reaction", s)
-				continue
+			default:
+				current.applyAux(s, pos, mf.index, p)
 			}
-			current.applyAux(s, pos, mf.index, p)
+		}
+		return left
+	}
+	for i := 0; i < len(lines); i++ {
+		for s := stripComment(lines[i].text); s != ""; {
+			s = handle(&i, s)
 		}
 	}
 	if state != outside {
@@ -236,10 +243,10 @@ func scanMechanism(lines []srcLine, file string, p *problemList) *mechFile {
 
 // addElements reads element symbols; "END" closes the block. Atomic weights
 // written "D/2.014/" are ignored: flame1d uses standard atomic weights.
-func (mf *mechFile) addElements(tokens []string, pos chem.Position, p *problemList, state blockState) blockState {
-	for _, t := range tokens {
+func (mf *mechFile) addElements(tokens []string, pos chem.Position, p *problemList, state blockState) (blockState, string) {
+	for j, t := range tokens {
 		if strings.EqualFold(t, "END") {
-			return outside
+			return outside, strings.Join(tokens[j+1:], " ")
 		}
 		sym, weight, hasWeight := strings.Cut(t, "/")
 		if hasWeight {
@@ -263,14 +270,14 @@ func (mf *mechFile) addElements(tokens []string, pos chem.Position, p *problemLi
 		}
 		mf.elements = append(mf.elements, sym)
 	}
-	return state
+	return state, ""
 }
 
 // addSpecies reads species names; "END" closes the block.
-func (mf *mechFile) addSpecies(tokens []string, pos chem.Position, p *problemList, state blockState) blockState {
-	for _, t := range tokens {
+func (mf *mechFile) addSpecies(tokens []string, pos chem.Position, p *problemList, state blockState) (blockState, string) {
+	for j, t := range tokens {
 		if strings.EqualFold(t, "END") {
-			return outside
+			return outside, strings.Join(tokens[j+1:], " ")
 		}
 		if strings.ContainsAny(t, "/=") || strings.EqualFold(t, "M") {
 			p.errorf(pos, "%q cannot be a species name", t)
@@ -280,10 +287,10 @@ func (mf *mechFile) addSpecies(tokens []string, pos chem.Position, p *problemLis
 			p.warnf(pos, "species %q declared twice (first at line %d); the repeat is ignored", t, mf.species[k].pos.Line)
 			continue
 		}
-		mf.index[strings.ToUpper(t)] = len(mf.species)
+		mf.index.add(t, len(mf.species))
 		mf.species = append(mf.species, declared{t, pos})
 	}
-	return state
+	return state, ""
 }
 
 // leadingComment returns the comment block that opens a file (typically the

@@ -107,15 +107,28 @@ type pending struct {
 }
 
 // speciesIndex looks species up by name, case-insensitively.
-type speciesIndex map[string]int
+type speciesIndex struct {
+	byName map[string]int // upper-case name -> index
+	maxLen int            // longest name, bytes
+}
 
-func (s speciesIndex) find(name string) (int, bool) {
-	i, ok := s[strings.ToUpper(name)]
+func newSpeciesIndex() *speciesIndex { return &speciesIndex{byName: map[string]int{}} }
+
+func (s *speciesIndex) find(name string) (int, bool) {
+	if len(name) > s.maxLen {
+		return 0, false
+	}
+	i, ok := s.byName[strings.ToUpper(name)]
 	return i, ok
 }
 
+func (s *speciesIndex) add(name string, k int) {
+	s.byName[strings.ToUpper(name)] = k
+	s.maxLen = max(s.maxLen, len(name))
+}
+
 // parseEquationLine reads "equation A b E".
-func parseEquationLine(text string, pos chem.Position, sp speciesIndex, p *problemList) *pending {
+func parseEquationLine(text string, pos chem.Position, sp *speciesIndex, p *problemList) *pending {
 	f := strings.Fields(text)
 	pr := &pending{seen: map[string]bool{}}
 	pr.r.Origin = pos
@@ -148,7 +161,7 @@ func parseEquationLine(text string, pos chem.Position, sp speciesIndex, p *probl
 
 // parseEquation splits the compacted equation into its two sides and reads
 // arrow, colliders and participants. It returns an error message or "".
-func (pr *pending) parseEquation(eq string, sp speciesIndex) string {
+func (pr *pending) parseEquation(eq string, sp *speciesIndex) string {
 	var lhs, rhs string
 	switch {
 	case strings.Count(eq, "<=>") == 1:
@@ -195,7 +208,7 @@ func (pr *pending) parseEquation(eq string, sp speciesIndex) string {
 // splitFalloffCollider removes a trailing "(+M)" or "(+species)" from one
 // side of an equation. It returns the collider as written ("" if none), the
 // specific collider's species index (-1 for M) and the rest of the side.
-func splitFalloffCollider(side string, sp speciesIndex) (collider string, k int, rest string) {
+func splitFalloffCollider(side string, sp *speciesIndex) (collider string, k int, rest string) {
 	i := strings.LastIndex(side, "(+")
 	if i < 0 || !strings.HasSuffix(side, ")") {
 		return "", -1, side
@@ -215,7 +228,7 @@ func splitFalloffCollider(side string, sp speciesIndex) (collider string, k int,
 
 // parseSide reads "2OH+H2O+M" into participants; repeated species are
 // merged. It reports whether a "+M" third body is present.
-func parseSide(side string, sp speciesIndex) ([]chem.Participant, bool, string) {
+func parseSide(side string, sp *speciesIndex) ([]chem.Participant, bool, string) {
 	if side == "" {
 		return nil, false, "empty side"
 	}
@@ -223,10 +236,14 @@ func parseSide(side string, sp speciesIndex) ([]chem.Participant, bool, string) 
 	var out []chem.Participant
 	hasM := false
 	// Species names may themselves contain '+': join pieces greedily,
-	// longest name first.
+	// longest name first (no longer than the longest name plus a
+	// coefficient).
 	for i := 0; i < len(pieces); {
 		matched := false
 		for j := len(pieces); j > i; j-- {
+			if span := j - i - 1 + totalLen(pieces[i:j]); span > sp.maxLen+maxCoefficientLen {
+				continue
+			}
 			term := strings.Join(pieces[i:j], "+")
 			if term == "" {
 				continue
@@ -262,7 +279,19 @@ func parseSide(side string, sp speciesIndex) ([]chem.Participant, bool, string) 
 	return out, hasM, ""
 }
 
-func isSpecies(sp speciesIndex, name string) bool {
+// maxCoefficientLen bounds the length of a written stoichiometric
+// coefficient ("0.333333").
+const maxCoefficientLen = 24
+
+func totalLen(ss []string) int {
+	n := 0
+	for _, s := range ss {
+		n += len(s)
+	}
+	return n
+}
+
+func isSpecies(sp *speciesIndex, name string) bool {
 	_, ok := sp.find(name)
 	return ok
 }
@@ -278,7 +307,7 @@ func addParticipant(ps []chem.Participant, k int, c float64) []chem.Participant 
 }
 
 // parseTerm reads "SPECIES" or "<coefficient>SPECIES" (2OH, 0.5C2H4).
-func parseTerm(term string, sp speciesIndex) (int, float64, bool) {
+func parseTerm(term string, sp *speciesIndex) (int, float64, bool) {
 	if k, ok := sp.find(term); ok {
 		return k, 1, true
 	}
@@ -378,7 +407,7 @@ var unsupportedAux = map[string]string{
 }
 
 // applyAux applies one auxiliary line to the current reaction.
-func (pr *pending) applyAux(text string, pos chem.Position, sp speciesIndex, p *problemList) {
+func (pr *pending) applyAux(text string, pos chem.Position, sp *speciesIndex, p *problemList) {
 	items, msg := splitAux(text)
 	if msg != "" {
 		p.errorf(pos, "reaction '%s': %s", pr.equation, msg)
@@ -602,8 +631,11 @@ func (pr *pending) finish(u rateUnits, p *problemList) (chem.Reaction, bool) {
 		rv := u.toSI(*pr.rev, nRev)
 		r.ReverseRate = &rv
 	}
+	if pr.effs != nil && pr.cheb != nil {
+		return fail("collision efficiencies given for a Chebyshev reaction, whose fit already includes the bath gas")
+	}
 	if pr.effs != nil && pr.collider != "M" {
-		if pr.collider == "" || len(pr.cheb) > 0 {
+		if pr.collider == "" {
 			return fail("collision efficiencies given but the equation has no '+M' or '(+M)'")
 		}
 		p.warnf(pr.effPos, "reaction '%s': efficiencies ignored, the collider is the single species %s", pr.equation, pr.collider)
