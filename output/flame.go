@@ -1,6 +1,7 @@
 package output
 
 import (
+	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -35,6 +36,7 @@ type FlameSummary struct {
 	JacobianEvaluations  int                `json:"jacobian_evaluations"`
 	Refinements          int                `json:"grid_refinements"`
 	WallTimeS            float64            `json:"wall_time_s"`
+	Zones                *flame.Zones       `json:"zones,omitempty"`
 	Note                 string             `json:"note"`
 }
 
@@ -81,6 +83,24 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 	fmt.Fprintf(&b, "  grid                    %d points over %.4g mm\n", s.GridPoints, 1e3*s.DomainLength)
 	fmt.Fprintf(&b, "  work                    %d Newton iterations, %d time steps, %d Jacobians, %d refinements, %.2f s\n",
 		s.NewtonIterations, s.TimeSteps, s.JacobianEvaluations, s.Refinements, s.WallTimeS)
+	if z := s.Zones; z != nil {
+		for _, pz := range z.Pyrolysis {
+			fmt.Fprintf(&b, "  pyrolysis of %-10s %.4g-%.4g mm (%.0f-%.0f K), residence %.3g ms\n",
+				pz.Species, 1e3*pz.StartX, 1e3*pz.EndX, pz.StartT, pz.EndT, 1e3*pz.ResidenceTime)
+		}
+		ox := z.Oxidation
+		fmt.Fprintf(&b, "  oxidation zone          %.4g-%.4g mm, heat-release peak at %.4g mm (%.0f K)\n",
+			1e3*ox.StartX, 1e3*ox.EndX, 1e3*ox.PeakX, ox.PeakT)
+		for _, pk := range z.PoolPeaks {
+			fmt.Fprintf(&b, "  pool peak %-13s %.3g at %.4g mm (%.0f K)\n", pk.Species, pk.MoleFraction, 1e3*pk.X, pk.T)
+		}
+		for _, pk := range z.RadicalPeaks {
+			fmt.Fprintf(&b, "  radical peak %-10s %.3g at %.4g mm\n", pk.Species, pk.MoleFraction, 1e3*pk.X)
+		}
+		if len(z.Pyrolysis) > 0 {
+			fmt.Fprintf(&b, "  pyrolysis end to peak   %.4g mm (%.3g thermal thicknesses)\n", 1e3*z.SeparationM, z.SeparationThickness)
+		}
+	}
 	fmt.Fprintf(&b, "  note                    %s\n", s.Note)
 	_, err := io.WriteString(w, b.String())
 	return err
@@ -115,4 +135,35 @@ func ProfileTable(p *flame.Profile, comments []string) *Table {
 		t.Rows = append(t.Rows, row)
 	}
 	return t
+}
+
+// WriteZonesCSV writes the zone diagnostics as a long table: one row per
+// zone or peak with its kind, species and positions.
+func WriteZonesCSV(w io.Writer, z *flame.Zones, comments []string) error {
+	for _, c := range comments {
+		if _, err := fmt.Fprintf(w, "# %s\n", c); err != nil {
+			return err
+		}
+	}
+	cw := csv.NewWriter(w)
+	rows := [][]string{{"kind", "species", "start [m]", "end [m]", "peak [m]", "T_start [K]", "T_end [K]", "T_peak [K]", "peak_value", "residence_time [s]"}}
+	f := FormatFloat
+	for _, p := range z.Pyrolysis {
+		rows = append(rows, []string{"pyrolysis", p.Species, f(p.StartX), f(p.EndX), "", f(p.StartT), f(p.EndT), "", "", f(p.ResidenceTime)})
+	}
+	o := z.Oxidation
+	rows = append(rows, []string{"oxidation", "", f(o.StartX), f(o.EndX), f(o.PeakX), "", "", f(o.PeakT), f(o.PeakValue), ""})
+	for _, p := range z.PoolPeaks {
+		rows = append(rows, []string{"pool_peak", p.Species, "", "", f(p.X), "", "", f(p.T), f(p.MoleFraction), ""})
+	}
+	for _, p := range z.RadicalPeaks {
+		rows = append(rows, []string{"radical_peak", p.Species, "", "", f(p.X), "", "", f(p.T), f(p.MoleFraction), ""})
+	}
+	if len(z.Pyrolysis) > 0 {
+		rows = append(rows, []string{"separation", "", "", "", f(z.SeparationM), "", "", "", f(z.SeparationThickness), ""})
+	}
+	if err := cw.WriteAll(rows); err != nil {
+		return err
+	}
+	return cw.Error()
 }

@@ -10,6 +10,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"sort"
 	"strings"
 	"time"
 
@@ -173,6 +174,15 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
 	}
+	var fuelNames []string
+	for name := range s.Case.Fuel {
+		fuelNames = append(fuelNames, name)
+	}
+	sort.Strings(fuelNames)
+	zones, err := prof.Zones(fuelNames, in.Y)
+	if err != nil {
+		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
+	}
 	cs := s.Case
 	sum := &output.FlameSummary{
 		Title: cs.Title, Mechanism: cs.Mechanism, Fuel: cs.Fuel, Oxidizer: cs.Oxidizer,
@@ -182,7 +192,7 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 		GridPoints: sol.Points(), DomainLength: sol.X[len(sol.X)-1] - sol.X[0],
 		NewtonIterations: sol.Stats.NewtonIterations, TimeSteps: sol.Stats.TimeSteps,
 		JacobianEvaluations: sol.Stats.JacobianEvaluations, Refinements: sol.Stats.Refinements,
-		WallTimeS: sol.Stats.WallTime.Seconds(), Note: output.SafetyNote,
+		WallTimeS: sol.Stats.WallTime.Seconds(), Note: output.SafetyNote, Zones: zones,
 	}
 	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum}, nil
 }
@@ -200,6 +210,14 @@ func WriteFlame(dir string, r *Result) error {
 	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, "profile.csv"), output.ProfileTable(r.Profile, comments).WriteCSV); err != nil {
 		return err
+	}
+	if r.Summary.Zones != nil {
+		err := output.WriteFileAtomic(filepath.Join(dir, "zones.csv"), func(w io.Writer) error {
+			return output.WriteZonesCSV(w, r.Summary.Zones, comments)
+		})
+		if err != nil {
+			return err
+		}
 	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, "summary.txt"), r.Summary.WriteText); err != nil {
 		return err
