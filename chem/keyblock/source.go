@@ -90,11 +90,11 @@ func expandTabs(s string) string {
 
 // firstWord returns the upper-cased first whitespace token of s.
 func firstWord(s string) string {
-	f := strings.Fields(s)
-	if len(f) == 0 {
-		return ""
+	s = strings.TrimLeft(s, " \t")
+	if i := strings.IndexAny(s, " \t"); i >= 0 {
+		s = s[:i]
 	}
-	return strings.ToUpper(f[0])
+	return strings.ToUpper(s)
 }
 
 // problemList collects the problems of one read.

@@ -268,15 +268,24 @@ func parseNumber(s string) (float64, error) {
 	if s == "" {
 		return 0, fmt.Errorf("empty field")
 	}
-	for _, c := range s {
-		switch {
+	fortran := false
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
 		case c >= '0' && c <= '9', c == '.', c == '+', c == '-', c == 'e', c == 'E':
 		case c == 'd' || c == 'D':
+			fortran = true
 		default:
 			return 0, fmt.Errorf("%q is not a number", s)
 		}
 	}
-	s = strings.NewReplacer("d", "e", "D", "e").Replace(s)
+	if fortran {
+		s = strings.Map(func(r rune) rune {
+			if r == 'd' || r == 'D' {
+				return 'e'
+			}
+			return r
+		}, s)
+	}
 	v, err := strconv.ParseFloat(s, 64)
 	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
 		return 0, fmt.Errorf("%q is not a finite number", s)
