@@ -35,6 +35,7 @@ type Case struct {
 	Grid   GridSettings
 	Solver SolverSettings
 	Output OutputSettings
+	Sweep  *SweepSettings // nil when the case has no [sweep] table
 }
 
 // GridSettings mirror the [grid] table; zero means "solver default".
@@ -93,6 +94,7 @@ type raw struct {
 	Output struct {
 		Directory string `toml:"directory"`
 	} `toml:"output"`
+	Sweep *rawSweep `toml:"sweep"`
 }
 
 // FieldError is a problem with one key of a case file.
@@ -214,6 +216,9 @@ func Parse(src []byte, file string) (*Case, error) {
 		return nil, fe("solver.workers", "must be 0 (all cores) or positive")
 	}
 	c.Output.Directory = r.Output.Directory
+	if c.Sweep, err = parseSweep(r.Sweep, c, src, file); err != nil {
+		return nil, err
+	}
 	return c, nil
 }
 
