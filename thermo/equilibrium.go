@@ -15,7 +15,11 @@ type EquilibriumOptions struct {
 	Exclude []bool
 	// Tolerance is the convergence tolerance on every scaled residual:
 	// relative element balance, gas-moles balance, condensed-phase
-	// optimality and (HP) enthalpy balance per mole. Default 1e-12.
+	// optimality and (HP) enthalpy balance per mole. Default 1e-12. In
+	// nearly degenerate mixtures (one species holding two elements in the
+	// very ratio of the mixture) round-off can keep a residual up to 1000
+	// times Tolerance; such a state is accepted and its element residual
+	// reported in EquilibriumResult.ElementResidual.
 	Tolerance float64
 	// MaxIterations bounds the Newton iterations of all stages. Default 1000.
 	MaxIterations int
@@ -161,37 +165,48 @@ func (s *SpeciesSet) AdiabaticFlame(T0, P float64, moles []float64, opt Equilibr
 // not excluded whose elements are all present, and a linearly independent
 // set of the elements present.
 type equilibrium struct {
-	set      *SpeciesSet
-	hp       bool
-	tol      float64
-	maxIter  int
-	P, lnP   float64
-	T        float64
-	H0R      float64 // target total enthalpy / R, K mol (scaled amounts)
-	scale    float64 // internal amounts = given amounts * scale
-	bAll     []float64
-	elem     []int     // independent present elements (indices into set.Elements)
-	b        []float64 // their element amounts
-	gas      []int     // active gas species
-	ag       []float64 // atoms, ag[j*nE+i] for gas j, element elem[i]
-	cond     []int     // candidate condensed species
-	ac       []float64 // atoms, ac[c*nE+i]
-	present  []bool    // condensed species in the current phase set
-	lnn, n   []float64 // gas log amounts and amounts
-	nc       []float64 // condensed amounts
-	lnN      float64   // log of the total-gas-moles variable
-	pi       []float64 // element potentials λ/RT of elem
-	g, h, cp []float64 // gas g°/RT, h/RT, cp/R at T
-	gc, hc   []float64 // condensed g°/RT, h/RT
-	cpc      []float64 // condensed cp/R
-	mu       []float64 // gas μ/RT
-	dlnn     []float64
+	set     *SpeciesSet
+	hp      bool
+	tol     float64
+	maxIter int
+	P, lnP  float64
+	T       float64
+	H0R     float64 // target total enthalpy / R, K mol (scaled amounts)
+	scale   float64 // internal amounts = given amounts * scale
+	bAll    []float64
+	elem    []int     // independent present elements (indices into set.Elements)
+	b       []float64 // their element amounts
+	gas     []int     // active gas species
+	ag      []float64 // atoms, ag[j*nE+i] for gas j, element elem[i]
+	cond    []int     // candidate condensed species
+	ac      []float64 // atoms, ac[c*nE+i]
+	present []bool    // condensed species in the current phase set
+	lnn, n  []float64 // gas log amounts and amounts
+	// liftFloor[j] is ln(1e-8 min_e b_e/a_ej) over the elements of gas j:
+	// an amount small against every element it holds.
+	liftFloor []float64
+	nc        []float64 // condensed amounts
+	lnN       float64   // log of the total-gas-moles variable
+	pi        []float64 // element potentials λ/RT of elem
+	g, h, cp  []float64 // gas g°/RT, h/RT, cp/R at T
+	gc, hc    []float64 // condensed g°/RT, h/RT
+	cpc       []float64 // condensed cp/R
+	mu        []float64 // gas μ/RT
+	dlnn      []float64
 	// Newton solution: new element potentials, condensed changes, Δln n_gas, Δln T.
-	piNew, dnc  []float64
-	dlnN, dlnT  float64
-	mat, rhs    []float64
-	iter        int
-	phaseChange int
+	piNew, dnc []float64
+	dlnN, dlnT float64
+	mat, rhs   []float64
+	mat0, rhs0 []float64 // copies for the truncated retry
+	sym        *symmetricWork
+	// truncated selects the truncated symmetric solve for every Newton
+	// system (see solveSymmetricTruncated).
+	truncated bool
+	// potentialStage is set during the element-potential stage, where a
+	// singular matrix falls back to the truncated solve.
+	potentialStage bool
+	iter           int
+	phaseChange    int
 }
 
 func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumOptions) (*equilibrium, error) {
@@ -283,6 +298,16 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 			q.ag[j*nE+i] = s.atoms[k*nAll+e]
 		}
 	}
+	q.liftFloor = make([]float64, len(q.gas))
+	for j := range q.gas {
+		f := math.Inf(1)
+		for i := 0; i < nE; i++ {
+			if a := q.ag[j*nE+i]; a > 0 {
+				f = math.Min(f, q.b[i]/a)
+			}
+		}
+		q.liftFloor[j] = math.Log(1e-8 * f)
+	}
 	q.ac = make([]float64, len(q.cond)*nE)
 	for c, k := range q.cond {
 		for i, e := range q.elem {
@@ -297,6 +322,8 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 	q.pi, q.piNew = make([]float64, nE), make([]float64, nE)
 	m := nE + nC + 2
 	q.mat, q.rhs = make([]float64, m*m), make([]float64, m)
+	q.mat0, q.rhs0 = make([]float64, m*m), make([]float64, m)
+	q.sym = newSymmetricWork(m)
 	// Starting point of Gordon & McBride (1994, sec. 3.1): equal amounts of
 	// every gas species, total gas moles 0.1 per unit of initial moles
 	// (their 0.1 per kg is of the same order).
@@ -468,8 +495,24 @@ func (q *equilibrium) newtonSystem() error {
 		M[iT*m+iT] = cpTot + sumNHH
 		r[iT] = q.H0R/q.T - H + sumNHMu
 	}
-	if err := solveDense(M, r, m); err != nil {
-		return err
+	if q.truncated {
+		if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+			return err
+		}
+	} else {
+		M0, r0 := q.mat0[:m*m], q.rhs0[:m]
+		copy(M0, M)
+		copy(r0, r)
+		if err := solveDense(M, r, m); err != nil {
+			if !q.potentialStage {
+				return err
+			}
+			copy(M, M0)
+			copy(r, r0)
+			if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+				return err
+			}
+		}
 	}
 	copy(q.piNew, r[:nE])
 	for c := range q.dnc {
@@ -491,12 +534,27 @@ func (q *equilibrium) newtonSystem() error {
 	return nil
 }
 
+// truncationRcond is the relative eigenvalue below which a direction of the
+// scaled Newton matrix is treated as null: 1e-12 keeps every direction that
+// double precision resolves after the scaling (common practice, no source).
+const truncationRcond = 1e-12
+
 // Gordon & McBride (1994, sec. 3.3): species with ln(n_j/n) below -size are
 // "trace" for step control; a trace species may not be raised above a mole
 // fraction of 1e-4 (ln = -9.2103404) in one step.
 const (
 	traceSize      = 18.420681
 	traceCeilingLn = 9.2103404
+	lnFloor        = 690.8 // -ln 1e-300
+	// maxLogDecrease caps how far one free-amount step may lower a species'
+	// log amount. An uncapped step can push a species that belongs in the
+	// equilibrium (the excess O2 of a lean mixture) to 1e-300, where it
+	// drops out of the Newton matrix and its element's row becomes
+	// dependent. e^-20 = 2e-9 per step still lets trace species fall fast.
+	maxLogDecrease = 20.0
+	// maxLifts is the number of trace-species lifts after which the
+	// free-amount stage switches to the truncated solve.
+	maxLifts = 10
 )
 
 func (q *equilibrium) computeMu() {
@@ -511,12 +569,34 @@ func (q *equilibrium) computeMu() {
 // sec. 3.6: n_j |Δln n_j| / sum n <= tol and the like).
 func (q *equilibrium) gordonMcBride(tol float64) error {
 	nE := len(q.elem)
-	atLimit := 0 // consecutive iterations pressing against a temperature limit
+	q.truncated = false
+	atLimit := 0 // iterations spent at a temperature limit
+	lifts := 0
 	for ; q.iter < q.maxIter; q.iter++ {
+		if q.T == maxEquilibriumTemperature || q.T == minEquilibriumTemperature {
+			if atLimit++; atLimit >= 10 {
+				return fmt.Errorf("equilibrium temperature reached the search limit %g K: enthalpy out of range", q.T)
+			}
+		}
 		q.updateThermo()
 		q.computeMu()
 		if err := q.newtonSystem(); err != nil {
-			return fmt.Errorf("Newton matrix singular at iteration %d", q.iter)
+			// Species that belong in the equilibrium were driven so low on
+			// the way that their elements' rows became dependent (a lean
+			// mixture whose excess O2 was consumed while the iterate was
+			// rich and hot). Raise every trace species to 1e-8 of the
+			// scarcest of its elements and go on; the iteration lowers the
+			// others again. The iteration limit bounds the lifts.
+			if lifts++; lifts == maxLifts && !q.truncated {
+				// What remains is a direction fixed only by trace amounts
+				// far below round-off of the majors: leave it alone.
+				q.truncated = true
+				continue
+			}
+			for j := range q.lnn {
+				q.lnn[j] = math.Max(q.lnn[j], q.liftFloor[j])
+			}
+			continue
 		}
 		copy(q.pi, q.piNew)
 		sumN := 0.0
@@ -560,18 +640,14 @@ func (q *equilibrium) gordonMcBride(tol float64) error {
 		if removed := q.applyCondensedStep(lambda); removed {
 			continue
 		}
-		for j := range q.gas {
-			q.lnn[j] += lambda * q.dlnn[j]
-		}
 		q.lnN += lambda * q.dlnN
-		q.setT(q.T * math.Exp(lambda*q.dlnT))
-		if (q.T == maxEquilibriumTemperature && q.dlnT > 0) || (q.T == minEquilibriumTemperature && q.dlnT < 0) {
-			if atLimit++; atLimit >= 10 {
-				return fmt.Errorf("equilibrium temperature reached the search limit %g K: enthalpy out of range", q.T)
-			}
-		} else {
-			atLimit = 0
+		for j := range q.gas {
+			// Keep n_j/n above 1e-300 so that no amount underflows to zero
+			// and drops its elements from the Newton matrix; the
+			// element-potential stage sets the true value.
+			q.lnn[j] = math.Max(q.lnn[j]+math.Max(lambda*q.dlnn[j], -maxLogDecrease), q.lnN-lnFloor)
 		}
+		q.setT(q.T * math.Exp(lambda*q.dlnT))
 	}
 	return fmt.Errorf("%w after %d iterations (free-amount stage)", ErrNotConverged, q.iter)
 }
@@ -683,6 +759,11 @@ func (q *equilibrium) residual() (worst, sq float64) {
 	return worst, sq
 }
 
+// roundOffFactor: a state whose residuals stay between Tolerance and
+// roundOffFactor*Tolerance although no Newton step (full or truncated) can
+// reduce them is limited by round-off and is accepted.
+const roundOffFactor = 1000
+
 // errStalled reports that the element-potential Newton iteration could not
 // reduce its residual.
 var errStalled = errors.New("element-potential iteration stalled")
@@ -697,6 +778,8 @@ func (q *equilibrium) elementPotential() error {
 	nc0 := make([]float64, len(q.cond))
 	dpi := make([]float64, nE)
 	dnc := make([]float64, len(q.cond))
+	q.potentialStage = true
+	defer func() { q.potentialStage = false }()
 	q.fromPotentials()
 	worst, sq := q.residual()
 	for ; q.iter < q.maxIter; q.iter++ {
@@ -763,6 +846,18 @@ func (q *equilibrium) elementPotential() error {
 			copy(q.nc, nc0)
 			q.lnN, q.T = lnN0, T0
 			q.fromPotentials()
+			if !q.truncated {
+				// Retry the iteration with null directions of the Newton
+				// matrix dropped.
+				q.truncated = true
+				q.iter--
+				continue
+			}
+			if worst <= roundOffFactor*q.tol {
+				// Round-off in the majors' amounts, not the iteration, is
+				// what is left.
+				return nil
+			}
 			return errStalled
 		}
 	}

@@ -3,6 +3,7 @@ package thermo_test
 import (
 	"errors"
 	"math"
+	"math/rand"
 	"strconv"
 	"strings"
 	"testing"
@@ -520,4 +521,48 @@ func BenchmarkAdiabaticFlameGRI30(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// TestEquilibriumRandomStates runs TP and HP equilibria of random C/H/O/N/Ar
+// mixtures (amounts spread over 25 decades, 250-6000 K, 1e2-1e8 Pa) and
+// asserts the optimality conditions and element balance of each: a
+// regression guard for the step control and the singular-matrix fallbacks.
+func TestEquilibriumRandomStates(t *testing.T) {
+	s := gri30Set(t)
+	rng := rand.New(rand.NewSource(1))
+	names := []string{"CH4", "O2", "N2", "H2", "H2O", "CO2", "AR", "C2H6", "CO", "NH3", "HCN", "C2H2", "CH3OH", "NO2", "OH", "O", "H", "N2O"}
+	trials := 4000
+	if testing.Short() {
+		trials = 500
+	}
+	maxIter := 0
+	for trial := 0; trial < trials; trial++ {
+		n := make([]float64, s.Len())
+		sum := 0.0
+		for _, nm := range names {
+			if rng.Float64() < 0.5 {
+				n[s.Index(nm)] = math.Pow(10, -25*rng.Float64()*rng.Float64())
+				sum += n[s.Index(nm)]
+			}
+		}
+		if sum == 0 {
+			continue
+		}
+		T := 250 + 5750*rng.Float64()
+		P := math.Pow(10, 2+6*rng.Float64())
+		var r *thermo.EquilibriumResult
+		var err error
+		if trial%2 == 0 {
+			r, err = s.EquilibrateTP(T, P, n, thermo.EquilibriumOptions{})
+		} else {
+			r, err = s.AdiabaticFlame(250+1750*rng.Float64(), P, n, thermo.EquilibriumOptions{})
+		}
+		if err != nil {
+			t.Errorf("trial %d: %v", trial, err)
+			continue
+		}
+		maxIter = max(maxIter, r.Iterations)
+		checkOptimality(t, "trial "+strconv.Itoa(trial), s, r, n, nil)
+	}
+	t.Logf("%d random states, at most %d iterations", trials, maxIter)
 }
