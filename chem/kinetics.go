@@ -51,26 +51,35 @@ type Kinetics struct {
 }
 
 // arrhenius is one Arrhenius set prepared for evaluation:
-// k = sign exp(lnA + b ln T - eR/T).
+// k = sign exp(lnA + b ln T - eR/T), or the constant a when b = E = 0
+// (a third of GRI-Mech 3.0's steps: no exponential needed).
 type arrhenius struct {
 	lnA, b, eR, sign float64 // eR = E/R in K
+	a                float64 // A itself
+	constant         bool
 }
 
 func newArrhenius(a Arrhenius) (arrhenius, error) {
 	if !finite(a.A) || !finite(a.B) || !finite(a.E) {
 		return arrhenius{}, fmt.Errorf("Arrhenius parameters A=%g b=%g E=%g J/mol must be finite", a.A, a.B, a.E)
 	}
+	r := arrhenius{b: a.B, eR: a.E / thermo.GasConstant, a: a.A, constant: a.B == 0 && a.E == 0}
 	switch {
 	case a.A > 0:
-		return arrhenius{lnA: math.Log(a.A), b: a.B, eR: a.E / thermo.GasConstant, sign: 1}, nil
+		r.lnA, r.sign = math.Log(a.A), 1
 	case a.A < 0:
-		return arrhenius{lnA: math.Log(-a.A), b: a.B, eR: a.E / thermo.GasConstant, sign: -1}, nil
+		r.lnA, r.sign = math.Log(-a.A), -1
+	default: // A = 0: k = 0 at every T
+		r.constant = true
 	}
-	return arrhenius{}, nil // A = 0: k = 0 at every T
+	return r, nil
 }
 
 // eval returns k(T) and dk/dT, with dk/dT = k (b + E/(RT))/T.
 func (a *arrhenius) eval(lnT, invT float64) (k, dkdT float64) {
+	if a.constant {
+		return a.a, 0
+	}
 	k = a.sign * math.Exp(a.lnA+a.b*lnT-a.eR*invT)
 	return k, k * (a.b + a.eR*invT) * invT
 }
@@ -104,6 +113,10 @@ type reactionData struct {
 	nuBeg    int32 // net stoichiometry (products minus reactants) [nuBeg, nuEnd)
 	nuEnd    int32
 	dnu      float64 // sum of net stoichiometric coefficients
+	// intNu: every net coefficient and Δν is an integer, so Kc can be formed
+	// by multiplying the species factors exp(-g/RT) (stoich.n, dnuInt).
+	intNu  bool
+	dnuInt int
 }
 
 type broadening uint8
@@ -148,16 +161,19 @@ type kineticsModel struct {
 	thermo []thermo.NASA7
 	rx     []reactionData
 
-	facSp  []int32   // species of each concentration factor
-	facOrd []float64 // its exponent; 1 for the repeated entries of integer orders
+	facs []factor // concentration factors of all reactions
+	nus  []stoich // net stoichiometry of all reactions
 
-	nuSp  []int32
-	nuVal []float64
+	// tbEff holds the collision efficiency of every species for each
+	// distinct third-body set: set t at [t*nsp, (t+1)*nsp). Dense, so that
+	// [M] = sum_k eff_k C_k is a sum of non-negative terms (no cancellation
+	// when a zero-efficiency species dominates).
+	tbEff []float64
+	ntb   int
 
-	tbDefault []float64
-	tbBeg     []int32 // set t has entries [tbBeg[t], tbBeg[t+1])
-	tbSp      []int32
-	tbDelta   []float64 // efficiency minus default
+	// pdep lists the reactions whose rate constant depends on C (falloff)
+	// or P (tables, Chebyshev); the others are complete after the per-T stage.
+	pdep []int32
 
 	falloffs []falloffData
 
@@ -171,7 +187,7 @@ type kineticsModel struct {
 	chebCache  int // total a_j entries
 	maxChebLen int // longest T or P series
 
-	maxSparse int // largest number of sparse derivative entries of one reaction
+	maxSparse int // largest number of concentration factors of one reaction
 }
 
 // kineticsWork holds the per-instance arrays.
@@ -179,22 +195,21 @@ type kineticsWork struct {
 	lastT     float64 // temperature of the cached per-T quantities; NaN when empty
 	lnT, invT float64
 	gRT, hRT  []float64
-	lnKc      []float64
-	invKc     []float64 // exp(-lnKc), exponent clamped to ±maxExpArg
+	expG      []float64 // exp(-g/RT) per species
+	Kc        []float64
+	invKc     []float64 // 1/Kc, clamped to [e^-maxExpArg, e^maxExpArg]
 	dlnKcdT   []float64
-	kfT, dkfT []float64 // Arrhenius part of simple forms
-	krT, dkrT []float64 // reverse: simple forms via Kc, or explicit
 	foT       []float64 // per falloff, foStride entries: see falloffTemperature
 	lvlK      []float64 // per pressure level: summed k, dk/dT, ln k (k > 0 only)
 	chebA     []float64 // per Chebyshev: a_j(T), da_j/dT (two blocks)
 	phi, dphi []float64 // Chebyshev polynomial scratch
 	ctot, lnP float64
 	thirdBody []float64 // [M] per set
-	kf, kr    []float64 // final rate constants at (T, C)
+	kf, kr    []float64 // rate constants at (T, C); those of pdep reactions set per call
 	dkfdT     []float64 // total derivatives at constant C
 	dkrdT     []float64
 	dkfdX     []float64 // falloff: dkf/d[M]; pressure forms: dkf/d ln P
-	facVal    []float64 // factor values C^a
+	facVal    []float64 // factor values C^a (Jacobian only)
 	fwd, rev  []float64
 	net       []float64
 	wdot      []float64
@@ -204,10 +219,11 @@ type kineticsWork struct {
 
 // Numerical guards; each keeps a result finite where the formula is not.
 const (
-	// maxExpArg bounds |ln Kc| when 1/Kc multiplies a rate constant, so that
-	// the product can neither overflow nor form 0*Inf. A reaction whose
+	// maxExpArg bounds |ln(1/Kc)| when 1/Kc multiplies a rate constant, so
+	// that kr = kf/Kc can neither overflow nor form 0*Inf. A reaction whose
 	// equilibrium constant exceeds e^700 ~ 1e304 has a reverse rate that is
-	// negligible next to its forward rate (and vice versa).
+	// negligible next to its forward rate (and vice versa); such values
+	// only occur with |ΔG°| > 700 RT, e.g. above 1450 kJ/mol at 250 K.
 	maxExpArg = 700.0
 	// prFloor is the smallest reduced pressure passed to the broadening
 	// functions: log10 Pr stays finite at [M] = 0. F is frozen below it, a
@@ -242,7 +258,7 @@ func NewKinetics(m *Mechanism) (*Kinetics, error) {
 	if _, err := m.Validate(); err != nil {
 		return nil, fmt.Errorf("kinetics for mechanism %q: %w", m.Name, err)
 	}
-	km := &kineticsModel{nsp: len(m.Species), tbBeg: []int32{0}, lvlSetBeg: []int32{0}}
+	km := &kineticsModel{nsp: len(m.Species), lvlSetBeg: []int32{0}}
 	km.thermo = make([]thermo.NASA7, km.nsp)
 	for i := range m.Species {
 		km.thermo[i] = m.Species[i].Thermo
@@ -251,6 +267,9 @@ func NewKinetics(m *Mechanism) (*Kinetics, error) {
 	for i := range m.Reactions {
 		if err := km.addReaction(&m.Reactions[i], &km.rx[i]); err != nil {
 			return nil, fmt.Errorf("kinetics: reaction %d (%s): %w", i+1, m.Reactions[i].Equation, err)
+		}
+		if f := km.rx[i].form; f != Elementary && f != ThreeBody {
+			km.pdep = append(km.pdep, int32(i))
 		}
 	}
 	k := &Kinetics{m: km}
@@ -275,17 +294,16 @@ func (km *kineticsModel) newWork() kineticsWork {
 	f := func(n int) []float64 { return make([]float64, n) }
 	return kineticsWork{
 		lastT: math.NaN(),
-		gRT:   f(K), hRT: f(K),
-		lnKc: f(n), invKc: f(n), dlnKcdT: f(n),
-		kfT: f(n), dkfT: f(n), krT: f(n), dkrT: f(n),
+		gRT:   f(K), hRT: f(K), expG: f(K),
+		Kc: f(n), invKc: f(n), dlnKcdT: f(n),
 		foT:       f(foStride * len(km.falloffs)),
 		lvlK:      f(3 * len(km.lvlLnP)),
 		chebA:     f(2 * km.chebCache),
 		phi:       f(km.maxChebLen),
 		dphi:      f(km.maxChebLen),
-		thirdBody: f(len(km.tbDefault)),
+		thirdBody: f(km.ntb),
 		kf:        f(n), kr: f(n), dkfdT: f(n), dkrdT: f(n), dkfdX: f(n),
-		facVal: f(len(km.facSp)),
+		facVal: f(len(km.facs)),
 		fwd:    f(n), rev: f(n), net: f(n),
 		wdot:      f(K),
 		sparseSp:  make([]int32, km.maxSparse),
@@ -360,9 +378,7 @@ func (k *Kinetics) RateConstants(T float64, C, kf, kr []float64) {
 func (k *Kinetics) EquilibriumConstants(T float64, Kc []float64) {
 	checkLen("Kc", len(Kc), len(k.m.rx))
 	k.setTemperature(T)
-	for i, v := range k.w.lnKc {
-		Kc[i] = math.Exp(v)
-	}
+	copy(Kc, k.w.Kc)
 }
 
 // HeatReleaseRate returns the volumetric heat release rate
@@ -377,13 +393,15 @@ func (k *Kinetics) HeatReleaseRate(T float64, C []float64) float64 {
 	return -s * thermo.GasConstant * T
 }
 
-// update brings the per-T cache to T and computes the rate constants at
-// (T, C) together with their derivatives.
+// update brings the per-T cache to T and completes the rate constants of
+// the C- and P-dependent reactions at (T, C), with their derivatives.
 func (k *Kinetics) update(T float64, C []float64) {
 	k.setTemperature(T)
 	m, w := k.m, &k.w
+	K := m.nsp
+	C = C[:K]
 	ctot := 0.0
-	for _, c := range C[:m.nsp] {
+	for _, c := range C {
 		ctot += c
 	}
 	w.ctot = ctot
@@ -392,39 +410,36 @@ func (k *Kinetics) update(T float64, C []float64) {
 	} else {
 		w.lnP = math.Inf(-1) // below every table: the lowest-pressure data apply
 	}
-	for t, def := range m.tbDefault {
-		s := def * ctot
-		for e := m.tbBeg[t]; e < m.tbBeg[t+1]; e++ {
-			s += m.tbDelta[e] * C[m.tbSp[e]]
+	for t := range w.thirdBody {
+		eff := m.tbEff[t*K : t*K+K]
+		s := 0.0
+		for j, c := range C {
+			s += eff[j] * c
 		}
 		w.thirdBody[t] = s
 	}
-	for i := range m.rx {
+	for _, i := range m.pdep {
 		r := &m.rx[i]
 		switch r.form {
-		case Elementary, ThreeBody:
-			w.kf[i], w.dkfdT[i], w.dkfdX[i] = w.kfT[i], w.dkfT[i], 0
 		case Falloff, ChemicallyActivated:
-			k.falloffRate(i, r)
+			k.falloffRate(int(i), r)
 		case PressureTable:
-			k.tableRate(i, r)
+			k.tableRate(int(i), r)
 		case Chebyshev:
-			k.chebyshevRate(i, r)
+			k.chebyshevRate(int(i), r)
 		}
-		switch {
-		case r.reverse == reverseExplicit || (r.reverse == reverseFromKc && (r.form == Elementary || r.form == ThreeBody)):
-			w.kr[i], w.dkrdT[i] = w.krT[i], w.dkrT[i]
-		case r.reverse == reverseFromKc:
+		if r.reverse == reverseFromKc {
 			kr := w.kf[i] * w.invKc[i]
 			w.kr[i] = kr
 			w.dkrdT[i] = w.dkfdT[i]*w.invKc[i] - kr*w.dlnKcdT[i]
-		default:
-			w.kr[i], w.dkrdT[i] = 0, 0
 		}
 	}
 }
 
-// setTemperature fills the per-T cache unless it already holds T.
+// setTemperature fills the per-T cache unless it already holds T: species
+// g/RT and h/RT, Kc and its T-derivative for every reaction, complete rate
+// constants of the Elementary and ThreeBody forms and of explicit reverse
+// rates, and the T-dependent parts of the other forms.
 func (k *Kinetics) setTemperature(T float64) {
 	w := &k.w
 	if T == w.lastT {
@@ -436,34 +451,30 @@ func (k *Kinetics) setTemperature(T float64) {
 	for i := range m.thermo {
 		p := &m.thermo[i]
 		h := p.HRT(T)
-		w.hRT[i] = h
-		w.gRT[i] = h - p.SR(T)
+		g := h - p.SR(T) // = p.GRT(T), without evaluating h twice
+		w.hRT[i], w.gRT[i] = h, g
+		w.expG[i] = math.Exp(-g)
 	}
 	lnStd := lnStdOverR - lnT
+	std := thermo.StandardPressure / (thermo.GasConstant * T)
 	for i := range m.rx {
 		r := &m.rx[i]
-		sg, sh := 0.0, 0.0
-		for e := r.nuBeg; e < r.nuEnd; e++ {
-			sp, nu := m.nuSp[e], m.nuVal[e]
-			sg += nu * w.gRT[sp]
-			sh += nu * w.hRT[sp]
-		}
-		lnKc := -sg + r.dnu*lnStd
-		w.lnKc[i] = lnKc
-		w.dlnKcdT[i] = (sh - r.dnu) * invT
-		w.invKc[i] = math.Exp(math.Max(-maxExpArg, math.Min(maxExpArg, -lnKc)))
+		w.Kc[i], w.dlnKcdT[i] = k.equilibriumConstant(r, lnStd, std, invT)
+		w.invKc[i] = clampedInverse(w.Kc[i])
 		switch r.form {
 		case Elementary, ThreeBody:
-			w.kfT[i], w.dkfT[i] = r.rate.eval(lnT, invT)
+			kf, dkf := r.rate.eval(lnT, invT)
+			w.kf[i], w.dkfdT[i], w.dkfdX[i] = kf, dkf, 0
 			if r.reverse == reverseFromKc {
-				// kr = kf/Kc in logarithms: no overflow of 1/Kc.
-				kr := r.rate.sign * math.Exp(r.rate.logAbs(lnT, invT)-lnKc)
-				w.krT[i] = kr
-				w.dkrT[i] = kr * ((r.rate.b+r.rate.eR*invT)*invT - w.dlnKcdT[i])
+				kr := kf * w.invKc[i]
+				w.kr[i], w.dkrdT[i] = kr, dkf*w.invKc[i]-kr*w.dlnKcdT[i]
 			}
 		}
-		if r.reverse == reverseExplicit {
-			w.krT[i], w.dkrT[i] = r.revRate.eval(lnT, invT)
+		switch r.reverse {
+		case reverseExplicit:
+			w.kr[i], w.dkrdT[i] = r.revRate.eval(lnT, invT)
+		case irreversible:
+			w.kr[i], w.dkrdT[i] = 0, 0
 		}
 	}
 	for f := range m.falloffs {
@@ -486,6 +497,59 @@ func (k *Kinetics) setTemperature(T float64) {
 		k.chebyshevTemperature(&m.chebs[c], invT)
 	}
 	w.lastT = T
+}
+
+// equilibriumConstant returns Kc = exp(-sum nu g/RT) (P°/RT)^Δν and
+// d ln Kc/dT = (sum nu h/RT - Δν)/T. With integer coefficients Kc is the
+// product of the cached species factors exp(-g/RT) and of P°/RT, when no
+// partial product can leave the float range (sum |nu g/RT| + |Δν ln(P°/RT)|
+// below maxExpArg); otherwise one exponential of ln Kc.
+func (k *Kinetics) equilibriumConstant(r *reactionData, lnStd, std, invT float64) (Kc, dlnKcdT float64) {
+	m, w := k.m, &k.w
+	sg, sh, sAbs := 0.0, 0.0, 0.0
+	for e := r.nuBeg; e < r.nuEnd; e++ {
+		sp, nu := m.nus[e].sp, m.nus[e].nu
+		sg += nu * w.gRT[sp]
+		sh += nu * w.hRT[sp]
+		sAbs += math.Abs(nu * w.gRT[sp])
+	}
+	dlnKcdT = (sh - r.dnu) * invT
+	if !r.intNu || sAbs+math.Abs(r.dnu*lnStd) >= maxExpArg {
+		return math.Exp(-sg + r.dnu*lnStd), dlnKcdT
+	}
+	Kc = 1
+	for n := r.dnuInt; n > 0; n-- {
+		Kc *= std
+	}
+	for n := r.dnuInt; n < 0; n++ {
+		Kc /= std
+	}
+	for _, s := range m.nus[r.nuBeg:r.nuEnd] {
+		v := w.expG[s.sp]
+		for n := s.n; n > 0; n-- {
+			Kc *= v
+		}
+		for n := s.n; n < 0; n++ {
+			Kc /= v
+		}
+	}
+	return Kc, dlnKcdT
+}
+
+var (
+	minInvKc = math.Exp(-maxExpArg)
+	maxInvKc = math.Exp(maxExpArg)
+)
+
+// clampedInverse returns 1/Kc limited to [e^-maxExpArg, e^maxExpArg].
+func clampedInverse(Kc float64) float64 {
+	if !(Kc > minInvKc) { // also Kc = 0
+		return maxInvKc
+	}
+	if Kc > maxInvKc {
+		return minInvKc
+	}
+	return 1 / Kc
 }
 
 // powFactor returns C^a for a non-unit exponent a, with the guards of the
@@ -519,17 +583,31 @@ func powFactorDeriv(c, a float64) float64 {
 	return a * math.Pow(c, a-1)
 }
 
-// product returns prod_e C^a over the factor range [beg, end) and stores
-// each factor's value in facVal.
-func (k *Kinetics) product(C []float64, beg, end int32) float64 {
-	m, w := k.m, &k.w
+// factor is one concentration factor C_sp^ord of a rate of progress.
+type factor struct {
+	sp  int32
+	ord float64 // 1 for each repeated entry of an integer order
+}
+
+// stoich is one net stoichiometric coefficient of a reaction.
+type stoich struct {
+	sp int32
+	n  int32 // nu as an integer, where reactionData.intNu
+	nu float64
+}
+
+// product returns prod C^a over the factors fs and, when vals is not nil,
+// keeps each factor's value there (for the Jacobian).
+func product(C []float64, fs []factor, vals []float64) float64 {
 	p := 1.0
-	for e := beg; e < end; e++ {
-		c, a := C[m.facSp[e]], m.facOrd[e]
-		if a != 1 {
-			c = powFactor(c, a)
+	for e, f := range fs {
+		c := C[f.sp]
+		if f.ord != 1 {
+			c = powFactor(c, f.ord)
 		}
-		w.facVal[e] = c
+		if vals != nil {
+			vals[e] = c
+		}
 		p *= c
 	}
 	return p
@@ -541,10 +619,10 @@ func (k *Kinetics) progress(C []float64) {
 	m, w := k.m, &k.w
 	for i := range m.rx {
 		r := &m.rx[i]
-		f := w.kf[i] * k.product(C, r.fBeg, r.fEnd)
+		f := w.kf[i] * product(C, m.facs[r.fBeg:r.fEnd], nil)
 		b := 0.0
 		if r.reverse != irreversible {
-			b = w.kr[i] * k.product(C, r.rBeg, r.rEnd)
+			b = w.kr[i] * product(C, m.facs[r.rBeg:r.rEnd], nil)
 		}
 		if r.form == ThreeBody {
 			M := w.thirdBody[r.thirdBdy]
@@ -562,8 +640,8 @@ func (k *Kinetics) accumulate(wdot []float64) {
 	for i := range m.rx {
 		r := &m.rx[i]
 		q := w.net[i]
-		for e := r.nuBeg; e < r.nuEnd; e++ {
-			wdot[m.nuSp[e]] += m.nuVal[e] * q
+		for _, s := range m.nus[r.nuBeg:r.nuEnd] {
+			wdot[s.sp] += s.nu * q
 		}
 	}
 }

@@ -29,36 +29,31 @@ func (km *kineticsModel) addReaction(r *Reaction, d *reactionData) error {
 	}
 
 	var err error
-	d.fBeg = int32(len(km.facSp))
+	d.fBeg = int32(len(km.facs))
 	if err = km.addFactors(r.Reactants, r.Orders); err != nil {
 		return fmt.Errorf("forward orders: %w", err)
 	}
-	d.fEnd = int32(len(km.facSp))
+	d.fEnd = int32(len(km.facs))
 	d.rBeg = d.fEnd
 	if d.reverse != irreversible {
 		if err = km.addFactors(r.Products, r.ReverseOrders); err != nil {
 			return fmt.Errorf("reverse orders: %w", err)
 		}
 	}
-	d.rEnd = int32(len(km.facSp))
-	d.nuBeg = int32(len(km.nuSp))
-	d.dnu = km.addNetStoichiometry(r)
-	d.nuEnd = int32(len(km.nuSp))
+	d.rEnd = int32(len(km.facs))
+	d.nuBeg = int32(len(km.nus))
+	km.addNetStoichiometry(r, d)
+	d.nuEnd = int32(len(km.nus))
 
-	sparse := int(d.rEnd - d.fBeg)
 	switch r.Form {
 	case Elementary:
 		d.rate, err = newArrhenius(r.Rate)
 	case ThreeBody:
 		if d.rate, err = newArrhenius(r.Rate); err == nil {
-			var n int
-			d.thirdBdy, n, err = km.addThirdBody(r.ThirdBody)
-			sparse += n
+			d.thirdBdy, err = km.addThirdBody(r.ThirdBody)
 		}
 	case Falloff, ChemicallyActivated:
-		var n int
-		if d.thirdBdy, n, err = km.addThirdBody(r.ThirdBody); err == nil {
-			sparse += n
+		if d.thirdBdy, err = km.addThirdBody(r.ThirdBody); err == nil {
 			d.sub = int32(len(km.falloffs))
 			err = km.addFalloff(r.FalloffRate, r.Form == ChemicallyActivated)
 		}
@@ -74,7 +69,7 @@ func (km *kineticsModel) addReaction(r *Reaction, d *reactionData) error {
 	if err != nil {
 		return err
 	}
-	km.maxSparse = max(km.maxSparse, sparse)
+	km.maxSparse = max(km.maxSparse, int(d.rEnd-d.fBeg))
 	return nil
 }
 
@@ -113,20 +108,18 @@ func (km *kineticsModel) addFactors(side []Participant, orders map[int]float64) 
 		case o == 0:
 		case o == math.Trunc(o) && o > 0 && o <= maxRepeatedOrder:
 			for n := 0; n < int(o); n++ {
-				km.facSp = append(km.facSp, int32(s))
-				km.facOrd = append(km.facOrd, 1)
+				km.facs = append(km.facs, factor{sp: int32(s), ord: 1})
 			}
 		default:
-			km.facSp = append(km.facSp, int32(s))
-			km.facOrd = append(km.facOrd, o)
+			km.facs = append(km.facs, factor{sp: int32(s), ord: o})
 		}
 	}
 	return nil
 }
 
 // addNetStoichiometry appends products-minus-reactants coefficients (zero
-// net entries dropped) and returns their sum Δν.
-func (km *kineticsModel) addNetStoichiometry(r *Reaction) float64 {
+// net entries dropped) and sets Δν and the integer-coefficient flag of d.
+func (km *kineticsModel) addNetStoichiometry(r *Reaction, d *reactionData) {
 	var order []int
 	nu := map[int]float64{}
 	add := func(ps []Participant, sign float64) {
@@ -139,46 +132,54 @@ func (km *kineticsModel) addNetStoichiometry(r *Reaction) float64 {
 	}
 	add(r.Reactants, -1)
 	add(r.Products, 1)
-	dnu := 0.0
+	isInt := func(v float64) bool { return v == math.Trunc(v) && math.Abs(v) <= maxRepeatedOrder }
+	d.dnu, d.intNu = 0, true
 	for _, s := range order {
 		if v := nu[s]; v != 0 {
-			km.nuSp = append(km.nuSp, int32(s))
-			km.nuVal = append(km.nuVal, v)
-			dnu += v
+			km.nus = append(km.nus, stoich{sp: int32(s), n: int32(v), nu: v})
+			d.dnu += v
+			d.intNu = d.intNu && isInt(v)
 		}
 	}
-	return dnu
+	d.intNu = d.intNu && isInt(d.dnu)
+	d.dnuInt = int(d.dnu)
 }
 
-// addThirdBody appends a collider set and returns its index and number of
-// species-specific entries.
-func (km *kineticsModel) addThirdBody(tb *ThirdBody) (int32, int, error) {
+// addThirdBody returns the index of the collider set tb, adding it unless
+// an identical set exists (published mechanisms repeat a few sets many times).
+func (km *kineticsModel) addThirdBody(tb *ThirdBody) (int32, error) {
 	if tb == nil {
-		return -1, 0, fmt.Errorf("no collision efficiencies")
+		return -1, fmt.Errorf("no collision efficiencies")
 	}
 	if !finite(tb.Default) {
-		return -1, 0, fmt.Errorf("default collision efficiency %g is not finite", tb.Default)
+		return -1, fmt.Errorf("default collision efficiency %g is not finite", tb.Default)
 	}
-	sp := make([]int, 0, len(tb.Efficiencies))
+	eff := make([]float64, km.nsp)
+	for i := range eff {
+		eff[i] = tb.Default
+	}
 	for s, e := range tb.Efficiencies {
 		if s < 0 || s >= km.nsp {
-			return -1, 0, fmt.Errorf("collision efficiency for species index %d out of range", s)
+			return -1, fmt.Errorf("collision efficiency for species index %d out of range", s)
 		}
 		if !finite(e) {
-			return -1, 0, fmt.Errorf("collision efficiency %g of species %d is not finite", e, s)
+			return -1, fmt.Errorf("collision efficiency %g of species %d is not finite", e, s)
 		}
-		if e != tb.Default {
-			sp = append(sp, s)
+		eff[s] = e
+	}
+	K := km.nsp
+next:
+	for t := 0; t < km.ntb; t++ {
+		for j, e := range km.tbEff[t*K : t*K+K] {
+			if e != eff[j] {
+				continue next
+			}
 		}
+		return int32(t), nil
 	}
-	sort.Ints(sp)
-	for _, s := range sp {
-		km.tbSp = append(km.tbSp, int32(s))
-		km.tbDelta = append(km.tbDelta, tb.Efficiencies[s]-tb.Default)
-	}
-	km.tbDefault = append(km.tbDefault, tb.Default)
-	km.tbBeg = append(km.tbBeg, int32(len(km.tbSp)))
-	return int32(len(km.tbDefault) - 1), len(sp), nil
+	km.tbEff = append(km.tbEff, eff...)
+	km.ntb++
+	return int32(km.ntb - 1), nil
 }
 
 func (km *kineticsModel) addFalloff(f *FalloffRate, chemAct bool) error {

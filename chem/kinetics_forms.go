@@ -19,8 +19,11 @@ func (fo *falloffData) temperature(T, lnT, invT float64, c []float64) {
 	l0, lInf := fo.low.logAbs(lnT, invT), fo.high.logAbs(lnT, invT)
 	c[0] = math.Exp(l0)
 	c[1] = math.Exp(lInf)
-	// k0/k_inf in logarithms: either limit may underflow at low T.
-	c[2] = math.Exp(math.Min(l0-lInf, maxExpArg))
+	if c[1] > 1e-290 && c[0] < 1e290 {
+		c[2] = c[0] / c[1]
+	} else { // a limit under- or overflowed (extreme T): the ratio in logarithms
+		c[2] = math.Exp(math.Min(l0-lInf, maxExpArg))
+	}
 	c[3] = fo.low.dlnkdT(invT)
 	c[4] = fo.high.dlnkdT(invT)
 	switch fo.kind {

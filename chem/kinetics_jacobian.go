@@ -32,10 +32,10 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 	for i := range m.rx {
 		r := &m.rx[i]
 		kf, kr := w.kf[i], w.kr[i]
-		pf := k.product(C, r.fBeg, r.fEnd)
+		pf := product(C, m.facs[r.fBeg:r.fEnd], w.facVal[r.fBeg:r.fEnd])
 		pr := 0.0
 		if r.reverse != irreversible {
-			pr = k.product(C, r.rBeg, r.rEnd)
+			pr = product(C, m.facs[r.rBeg:r.rEnd], w.facVal[r.rBeg:r.rEnd])
 		}
 		mf := 1.0
 		if r.form == ThreeBody {
@@ -51,7 +51,7 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 		q := fw - bw
 		dqdT := (w.dkfdT[i]*pf - w.dkrdT[i]*pr) * mf
 
-		// dq/dC_j = uniform + sum of sparse entries for species j.
+		// Mass-action part: sparse entries (species, dq/dC).
 		ns := 0
 		ns = k.productDerivs(C, r.fBeg, r.fEnd, kf*mf, ns)
 		if r.reverse != irreversible {
@@ -63,26 +63,35 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 		if r.reverse == reverseFromKc {
 			shared -= w.invKc[i] * pr
 		}
-		uniform := 0.0
+		// dq/dC_j = tb eff_j + uniform + the sparse entries of species j.
+		tb, uniform := 0.0, 0.0
 		switch r.form {
 		case ThreeBody:
-			ns = k.thirdBodyDerivs(r.thirdBdy, kf*pf-kr*pr, &uniform, ns)
+			tb = kf*pf - kr*pr
 		case Falloff, ChemicallyActivated:
-			if g := w.dkfdX[i] * shared; g != 0 {
-				ns = k.thirdBodyDerivs(r.thirdBdy, g, &uniform, ns)
-			}
+			tb = w.dkfdX[i] * shared
 		case PressureTable, Chebyshev:
 			// d ln P/d C_j = 1/sum(C) for every j; dkfdX = dkf/d ln P is
 			// non-zero only inside the pressure range, so sum(C) > 0.
 			if g := w.dkfdX[i]; g != 0 {
-				uniform += g / w.ctot * shared
+				uniform = g / w.ctot * shared
 			}
 		}
-		for e := r.nuBeg; e < r.nuEnd; e++ {
-			sp, nu := int(m.nuSp[e]), m.nuVal[e]
+		var eff []float64
+		if tb != 0 {
+			eff = m.tbEff[int(r.thirdBdy)*K : int(r.thirdBdy+1)*K]
+		}
+		for _, st := range m.nus[r.nuBeg:r.nuEnd] {
+			sp, nu := int(st.sp), st.nu
 			wdot[sp] += nu * q
 			dWdT[sp] += nu * dqdT
 			row := dWdC[sp*K : sp*K+K]
+			if eff != nil {
+				g := nu * tb
+				for j, v := range eff {
+					row[j] += g * v
+				}
+			}
 			if uniform != 0 {
 				u := nu * uniform
 				for j := range row {
@@ -97,13 +106,14 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 }
 
 // productDerivs appends scale * d(prod)/dC_sp for every factor of the range
-// (factor values from the last product call) to the sparse list.
+// (factor values kept by the last product call) to the sparse list.
 func (k *Kinetics) productDerivs(C []float64, beg, end int32, scale float64, ns int) int {
 	m, w := k.m, &k.w
 	for e := beg; e < end; e++ {
 		d := 1.0
-		if a := m.facOrd[e]; a != 1 {
-			d = powFactorDeriv(C[m.facSp[e]], a)
+		f := m.facs[e]
+		if f.ord != 1 {
+			d = powFactorDeriv(C[f.sp], f.ord)
 		}
 		if d == 0 {
 			continue
@@ -114,19 +124,7 @@ func (k *Kinetics) productDerivs(C []float64, beg, end int32, scale float64, ns 
 				d *= w.facVal[o]
 			}
 		}
-		w.sparseSp[ns], w.sparseVal[ns] = m.facSp[e], d
-		ns++
-	}
-	return ns
-}
-
-// thirdBodyDerivs adds g * d[M]/dC_j = g eff_j: g*default to every species
-// (uniform) and g*(eff_j - default) as sparse entries.
-func (k *Kinetics) thirdBodyDerivs(t int32, g float64, uniform *float64, ns int) int {
-	m, w := k.m, &k.w
-	*uniform += g * m.tbDefault[t]
-	for e := m.tbBeg[t]; e < m.tbBeg[t+1]; e++ {
-		w.sparseSp[ns], w.sparseVal[ns] = m.tbSp[e], g*m.tbDelta[e]
+		w.sparseSp[ns], w.sparseVal[ns] = f.sp, d
 		ns++
 	}
 	return ns
