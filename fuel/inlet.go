@@ -137,14 +137,14 @@ func PrecrackedInlet(m *chem.Mechanism, set *thermo.SpeciesSet, pool *Pool, oxid
 	}
 	Y := make([]float64, len(n))
 	set.MoleToMass(X, Y)
+	if hMin := set.EnthalpyMass(MinInletTemperature, Y); h < hMin {
+		crack := (set.EnthalpyMass(Tu, Y) - h) * mass / pool.MolarMass
+		return nil, fmt.Errorf("pre-cracked inlet: cracking takes %.4g MJ per kg of fuel; to carry the enthalpy of fuel + oxidizer at %.1f K the pool mixture would have to enter below the %g K floor of the thermo fits. Raise the unburned temperature, burn a leaner mixture, or use mode = %q",
+			crack/1e6, Tu, MinInletTemperature, ModeFiniteRate)
+	}
 	T, err := set.TemperatureFromEnthalpy(h, Y, Tu)
 	if err != nil {
 		return nil, fmt.Errorf("pre-cracked inlet: %w", err)
-	}
-	if T < MinInletTemperature {
-		crack := (set.EnthalpyMass(Tu, Y) - h) * mass / pool.MolarMass
-		return nil, fmt.Errorf("pre-cracked inlet: cracking takes %.4g MJ per kg of fuel; to carry the enthalpy of fuel + oxidizer at %.1f K the pool mixture would have to enter at %.1f K, below the %g K floor of the thermo fits. Raise the unburned temperature, burn a leaner mixture, or use mode = %q",
-			crack/1e6, Tu, T, MinInletTemperature, ModeFiniteRate)
 	}
 	scale := math.Max(math.Abs(h), set.CpMass(Tu, Y)*Tu)
 	return &Inlet{

@@ -148,7 +148,7 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 		}
 	}
 	if closes {
-		return p, nil, nil
+		return p.withoutEmpty(given), nil, nil
 	}
 
 	nU := len(bal)
@@ -222,7 +222,12 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 		}
 		adj = append(adj, Adjustment{Species: set.Species[k].Name, Given: given[i], Closed: p.moles[i], Reason: reason})
 	}
-	// Drop balance species that ended at exactly zero and were not given.
+	return p.withoutEmpty(given), adj, nil
+}
+
+// withoutEmpty drops the species that end at zero and were not given
+// (balance species the closure did not need).
+func (p *poolAmounts) withoutEmpty(given []float64) *poolAmounts {
 	keep := 0
 	for i := range p.index {
 		if p.moles[i] == 0 && given[i] == 0 {
@@ -232,7 +237,7 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 		keep++
 	}
 	p.index, p.moles = p.index[:keep], p.moles[:keep]
-	return p, adj, nil
+	return p
 }
 
 func speciesNames(set *thermo.SpeciesSet, index, which []int) []string {

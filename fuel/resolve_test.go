@@ -1,0 +1,356 @@
+package fuel
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"flame1d/chem"
+	"flame1d/thermo"
+	"flame1d/transport"
+)
+
+var air = map[string]float64{"O2": 0.21, "N2": 0.79}
+
+// kerosene is an invented reference kerosene: H/C 1.95, LHV 43.2 MJ/kg,
+// typical of jet fuels (common practice, no source), cracking by measured
+// yields (invented: ethylene-rich as pyrolysis yields are, with enough
+// hydrogen-poor butadiene and acetylene to stand for the aromatics the
+// skeletal mechanism lacks; given H/C 1.93, so closing takes a little H2).
+func kerosene() Spec {
+	return Spec{
+		Name: "ref-kerosene", Formula: "C11.4H22.23", LowerHeatingValue: "43.2 MJ/kg",
+		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 2.6, "ch4": 0.8, "c3h6": 0.5, "c4h6": 0.6, "c2h2": 0.8, "h2": 0.2}},
+	}
+}
+
+func TestResolveClosureAndHeatingValue(t *testing.T) {
+	m, set := builtinMech(t, "nheptane-sk68")
+	eq := Spec{Name: "eq", HToC: 2, MolarMass: "154.3 g/mol", LowerHeatingValue: "43 MJ/kg",
+		Cracking: CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "10 bar", Exclude: []string{"c2h2", "c3h4-a", "c3h4-p", "c3h2", "c4h6"}}}
+	oxy := Spec{Name: "oxy", Formula: "C10H20O0.5", HigherHeatingValue: "45 MJ/kg",
+		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 3, "c2h2": 0.5}}}
+	liquid := kerosene()
+	liquid.Name, liquid.VaporizationEnthalpy = "liquid", "0.36 MJ/kg"
+	for _, s := range []Spec{kerosene(), eq, oxy, liquid} {
+		for _, mode := range []string{ModeFiniteRate, ModePreCracked} {
+			s.Mode = mode
+			r, err := s.Resolve(m, set)
+			if err != nil {
+				t.Fatalf("%s (%s): %v", s.Name, mode, err)
+			}
+			checkClosure(t, set, r.Pool)
+			rep := r.Report
+			if max(abs(rep.Residuals.C), abs(rep.Residuals.H), abs(rep.Residuals.O)) > 1e-12 {
+				t.Errorf("%s: reported residuals %+v", s.Name, rep.Residuals)
+			}
+			// The heating value recomputed from the pseudo-species' own thermo
+			// by thermo.SpeciesSet.LowerHeatingValue (complete combustion at
+			// 298.15 K) equals the input; exact by construction up to
+			// round-off, so 1e-6 is loose.
+			one, err := thermo.NewSpeciesSet(append(append([]thermo.Species(nil), set.Species...), r.Pool.Pseudo.Species))
+			if err != nil {
+				t.Fatal(err)
+			}
+			x := make([]float64, one.Len())
+			x[one.Len()-1] = 1
+			lhv, err := one.LowerHeatingValue(x)
+			if err != nil {
+				t.Fatal(err)
+			}
+			hhv, _ := one.HigherHeatingValue(x)
+			var want, got float64
+			switch {
+			case s.HigherHeatingValue.Given():
+				want, got = 45e6, hhv
+			case s.VaporizationEnthalpy.Given():
+				want, got = 43.2e6+0.36e6, lhv
+			default:
+				want, got = map[string]float64{"ref-kerosene": 43.2e6, "eq": 43e6}[s.Name], lhv
+			}
+			if relErr(got, want) > 1e-6 {
+				t.Errorf("%s: heating value from the pseudo-species %.9g J/kg, input %.9g", s.Name, got, want)
+			}
+			if relErr(rep.LHV, lhv) > 1e-9 || relErr(rep.HHV, hhv) > 1e-9 {
+				t.Errorf("%s: reported LHV/HHV %g/%g, thermo %g/%g", s.Name, rep.LHV, rep.HHV, lhv, hhv)
+			}
+			// h(298.15 K) of the pseudo-species is the enthalpy of formation.
+			if h := r.Pool.Pseudo.EnthalpyMole(thermo.ReferenceTemperature); relErr(h, r.Pool.FormationEnthalpy) > 1e-12 {
+				t.Errorf("%s: h(298.15) = %.12g J/mol, formation enthalpy %.12g", s.Name, h, r.Pool.FormationEnthalpy)
+			}
+			if jump := r.Pool.Pseudo.Thermo.MidpointJump(); jump > 1e-10 {
+				t.Errorf("%s: pseudo-species polynomials jump by %g at 1000 K", s.Name, jump)
+			}
+			// Cracking a fuel to light olefins takes heat (common practice, no
+			// source): 1-5 MJ/kg for pools like these.
+			if !(rep.CrackingEnthalpy > 1e6 && rep.CrackingEnthalpy < 5e6) {
+				t.Errorf("%s: cracking enthalpy %g J/kg outside 1-5 MJ/kg", s.Name, rep.CrackingEnthalpy)
+			}
+		}
+	}
+}
+
+// TestFormationEnthalpyNHeptane checks the heating-value inversion
+// against n-heptane: NIST Chemistry WebBook, liquid ΔcH° = -4817 kJ/mol,
+// ΔvapH°(298 K) = 36.6 kJ/mol, gas ΔfH° = -187.8 kJ/mol (values quoted
+// from memory). The tolerance, 1.5 kJ/mol, covers their rounding and the
+// mechanism's CO2/H2O enthalpies.
+func TestFormationEnthalpyNHeptane(t *testing.T) {
+	m, set := builtinMech(t, "nheptane-sk68")
+	W := Formula{C: 7, H: 16}.MolarMass()
+	s := Spec{Name: "heptane-as-pool", Formula: "C7H16",
+		HigherHeatingValue: Quantity(ftoa(4817e3/W) + " J/kg"), VaporizationEnthalpy: Quantity(ftoa(36.6e3/W) + " J/kg"),
+		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 3, "ch4": 1}}}
+	r, err := s.Resolve(m, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if hf := r.Pool.FormationEnthalpy; math.Abs(hf-(-187.8e3)) > 1.5e3 {
+		t.Errorf("n-heptane vapour Δh_f from its heating value = %.1f kJ/mol, NIST -187.8", hf/1e3)
+	}
+	// Round trip with the mechanism's own n-heptane: its LHV as input gives
+	// back its enthalpy of formation.
+	k := set.Index("nc7h16")
+	x := make([]float64, set.Len())
+	x[k] = 1
+	lhv, err := set.LowerHeatingValue(x)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hf, err := FormationEnthalpyFromLHV(set, Formula{C: 7, H: 16}, lhv)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := set.Species[k].FormationEnthalpy(); math.Abs(hf-want) > 1e-9*math.Abs(want) {
+		t.Errorf("round trip Δh_f = %.12g, mechanism %.12g J/mol", hf, want)
+	}
+}
+
+func ftoa(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+func TestAugmentMechanism(t *testing.T) {
+	m, set := builtinMech(t, "nheptane-sk68")
+	s := kerosene()
+	s.SpeciesName = "KERO"
+	r, err := s.Resolve(m, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	aug := r.Mechanism
+	if len(aug.Species) != len(m.Species)+1 || len(aug.Reactions) != len(m.Reactions)+1 {
+		t.Fatalf("augmented mechanism has %d species, %d reactions; want %d, %d",
+			len(aug.Species), len(aug.Reactions), len(m.Species)+1, len(m.Reactions)+1)
+	}
+	if _, err := aug.Validate(); err != nil {
+		t.Fatalf("augmented mechanism does not validate: %v", err)
+	}
+	// The global step balances to round-off (Validate allows 1e-3).
+	rx := aug.Reactions[len(aug.Reactions)-1]
+	net := map[string]float64{}
+	for _, p := range rx.Reactants {
+		for e, n := range aug.Species[p.Species].Composition {
+			net[strings.ToUpper(e)] += p.Coefficient * n
+		}
+	}
+	for _, p := range rx.Products {
+		for e, n := range aug.Species[p.Species].Composition {
+			net[strings.ToUpper(e)] -= p.Coefficient * n
+		}
+	}
+	for e, d := range net {
+		if math.Abs(d) > 1e-12*r.Pool.Formula.C {
+			t.Errorf("global step %s: element %s imbalance %g", rx.Equation, e, d)
+		}
+	}
+	if rx.Reversible || !strings.HasPrefix(rx.Equation, "KERO => ") {
+		t.Errorf("global step %q: want an irreversible step from KERO", rx.Equation)
+	}
+	if len(m.Reactions) == len(aug.Reactions) || m.SpeciesIndex("KERO") >= 0 {
+		t.Error("AugmentMechanism modified its input")
+	}
+	// Rate: the default cracking time is 0.1 ms at 1300 K (k = 1e4 /s),
+	// and the chemistry package evaluates the step so.
+	kin, err := chem.NewKinetics(aug)
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := len(aug.Species)
+	C := make([]float64, n)
+	C[n-1] = 1
+	kf, kr := make([]float64, len(aug.Reactions)), make([]float64, len(aug.Reactions))
+	kin.RateConstants(1300, C, kf, kr)
+	if last := len(kf) - 1; relErr(kf[last], 1e4) > 1e-9 || kr[last] != 0 {
+		t.Errorf("global step at 1300 K: kf = %g /s, kr = %g; want 1e4 /s, 0", kf[last], kr[last])
+	}
+	if tau := CrackingTime(r.Rate, 1300); relErr(tau, 1e-4) > 1e-12 {
+		t.Errorf("cracking time at 1300 K = %g s, want 1e-4", tau)
+	}
+	// The flame's transport model accepts the pseudo-species.
+	if _, err := transport.New(aug, transport.Options{}); err != nil {
+		t.Errorf("transport model of the augmented mechanism: %v", err)
+	}
+	// A name clash is refused.
+	if _, err := AugmentMechanism(m, &Pool{Fuel: "x", Pseudo: &chem.Species{Species: thermo.Species{Name: "ch4"}}}, r.Rate); err == nil ||
+		!strings.Contains(err.Error(), "already a species") {
+		t.Errorf("pseudo-species named like a mechanism species: err = %v", err)
+	}
+}
+
+func TestGlobalStepRate(t *testing.T) {
+	for _, c := range []struct {
+		g       GlobalStepSpec
+		T, tau  float64
+		wantErr string
+	}{
+		{GlobalStepSpec{}, 1300, 1e-4, ""},
+		{GlobalStepSpec{CrackingTime: "50 us", AtTemperature: "1400 K", ActivationEnergy: "200 kJ/mol"}, 1400, 50e-6, ""},
+		{GlobalStepSpec{CrackingTime: "1 ms", TemperatureExponent: 1.5}, 1300, 1e-3, ""},
+		{GlobalStepSpec{PreExponential: 1e13, ActivationEnergy: "0 J/mol"}, 1000, 1e-13, ""},
+		{GlobalStepSpec{PreExponential: 1e13, CrackingTime: "1 ms"}, 0, 0, "not both"},
+		{GlobalStepSpec{CrackingTime: "-1 ms"}, 0, 0, "positive"},
+		{GlobalStepSpec{ActivationEnergy: "250 kJ/kg"}, 0, 0, "unknown energy per mole unit"},
+	} {
+		r, err := c.g.Rate()
+		if c.wantErr != "" {
+			if err == nil || !strings.Contains(err.Error(), c.wantErr) {
+				t.Errorf("%+v: error %v, want %q", c.g, err, c.wantErr)
+			}
+			continue
+		}
+		if err != nil {
+			t.Errorf("%+v: %v", c.g, err)
+			continue
+		}
+		if tau := CrackingTime(r, c.T); relErr(tau, c.tau) > 1e-12 {
+			t.Errorf("%+v: cracking time at %g K = %g s, want %g", c.g, c.T, tau, c.tau)
+		}
+	}
+}
+
+func TestPrecrackedInlet(t *testing.T) {
+	m, set := builtinMech(t, "nheptane-sk68")
+	s := kerosene()
+	s.Mode = ModePreCracked
+	r, err := s.Resolve(m, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fr := kerosene()
+	rf, err := fr.Resolve(m, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct{ phi, Tu float64 }{{1, 600}, {0.6, 450}, {1.4, 700}} {
+		in, err := r.Inlet(air, c.phi, c.Tu)
+		if err != nil {
+			t.Fatalf("phi %g, %g K: %v", c.phi, c.Tu, err)
+		}
+		// Cracking is endothermic, so the pool enters colder (common
+		// practice, no source); the shift is minus the cracking enthalpy
+		// over cp, a few tens of kelvin here.
+		if !(in.TemperatureShift < -5 && in.TemperatureShift > -300) {
+			t.Errorf("phi %g, %g K: temperature shift %g K, want a drop of 5-300 K", c.phi, c.Tu, in.TemperatureShift)
+		}
+		// Enthalpy balance: the finite-rate inlet (fuel vapour + air at Tu)
+		// and the pre-cracked inlet carry the same enthalpy per kg.
+		fin, err := rf.Inlet(air, c.phi, c.Tu)
+		if err != nil {
+			t.Fatal(err)
+		}
+		hPool := set.EnthalpyMass(in.T, in.Y)
+		if relErr(hPool, fin.Enthalpy) > 1e-9 {
+			t.Errorf("phi %g: pre-cracked inlet h = %.12g J/kg, fuel + air %.12g", c.phi, hPool, fin.Enthalpy)
+		}
+		// Same atoms per kg in both inlets (equivalence ratio on the real
+		// fuel's formula).
+		b1, b2 := elementsPerKg(set, in.Y), elementsPerKg(rf.Set, fin.Y)
+		for e, v := range b1 {
+			if relErr(v, b2[e]) > 1e-12 {
+				t.Errorf("phi %g: element %s %.15g mol/kg pre-cracked, %.15g finite-rate", c.phi, e, v, b2[e])
+			}
+		}
+	}
+	// Too cold: a pool that must enter below 200 K is refused with the
+	// explanation.
+	if _, err := r.Inlet(air, 1, 230); err == nil || !strings.Contains(err.Error(), "below the 200 K floor") {
+		t.Errorf("inlet at 230 K: err = %v, want a refusal below 200 K", err)
+	}
+}
+
+func elementsPerKg(set *thermo.SpeciesSet, Y []float64) map[string]float64 {
+	out := map[string]float64{}
+	for k, y := range Y {
+		for e, n := range set.Species[k].Composition {
+			out[strings.ToUpper(e)] += y / set.MolarMass[k] * n
+		}
+	}
+	return out
+}
+
+func TestNeatFuel(t *testing.T) {
+	m, set := builtinMech(t, "gri30")
+	s := Spec{Name: "natural gas", Composition: map[string]float64{"CH4": 0.9, "C2H6": 0.1}}
+	r, err := s.Resolve(m, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in, err := r.Inlet(air, 0.8, 300)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ch, _ := Premixed(m, set, s.Composition, air, 0.8)
+	for k := range ch.X {
+		if in.X[k] != ch.X[k] {
+			t.Fatalf("neat inlet differs from Premixed at %s", set.Species[k].Name)
+		}
+	}
+	if r.Mechanism != m || in.T != 300 {
+		t.Error("a neat fuel must burn the given mechanism at the unburned temperature")
+	}
+	s.Formula = "C11H22"
+	if _, err := s.Resolve(m, set); err == nil || !strings.Contains(err.Error(), "not both") {
+		t.Errorf("composition plus formula: err = %v", err)
+	}
+}
+
+func TestResolveRefusals(t *testing.T) {
+	m, set := builtinMech(t, "nheptane-sk68")
+	base := kerosene()
+	for _, c := range []struct {
+		name string
+		edit func(s *Spec)
+		want string
+	}{
+		{"no heating value", func(s *Spec) { s.LowerHeatingValue = "" }, "exactly one of"},
+		{"two heating values", func(s *Spec) { s.HigherHeatingValue = "46 MJ/kg" }, "exactly one of"},
+		{"heating value unit", func(s *Spec) { s.LowerHeatingValue = "43.2" }, "outside 1-200 MJ/kg"},
+		{"mode", func(s *Spec) { s.Mode = "cracked" }, "mode \"cracked\""},
+		{"molar mass disagrees", func(s *Spec) { s.MolarMass = "170 g/mol" }, "disagrees with formula"},
+		{"h_to_c without molar mass", func(s *Spec) { s.Formula, s.HToC = "", 1.95 }, "needs molar_mass"},
+		{"equilibrium without conditions", func(s *Spec) {
+			s.Cracking = CrackingSpec{Method: "equilibrium"}
+		}, "needs temperature and pressure"},
+		{"keys of the other method", func(s *Spec) { s.Cracking.Temperature = "1300 K" }, "belong to method = \"equilibrium\""},
+		{"global step in pre-cracked mode", func(s *Spec) {
+			s.Mode, s.GlobalStep.CrackingTime = ModePreCracked, "1 ms"
+		}, "only to mode"},
+		{"transport out of range", func(s *Spec) { s.Formula = "C30H62" }, "outside the n-alkane range"},
+		{"bad species name", func(s *Spec) { s.SpeciesName = "KERO A" }, "may not contain blanks"},
+		{"walled to infeasibility", func(s *Spec) {
+			s.Cracking = CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "1 atm",
+				Candidates: []string{"ch4", "c2h6", "h2"}}
+		}, "cannot hold the fuel's atoms"},
+	} {
+		s := base
+		s.Cracking.Yields = map[string]float64{}
+		for k, v := range base.Cracking.Yields {
+			s.Cracking.Yields[k] = v
+		}
+		c.edit(&s)
+		_, err := s.Resolve(m, set)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: err = %v, want one containing %q", c.name, err, c.want)
+		}
+	}
+}
