@@ -19,9 +19,11 @@ import (
 // per goroutine; clones share the immutable reaction data.
 //
 // Every method takes the temperature T [K] and the molar concentrations C
-// [mol/m^3], one per species. T must be positive and finite. Where a rate
+// [mol/m^3], one per species. T must be positive and finite (a caller's
+// invalid iterate T <= 0 yields NaN results; nothing panics). Where a rate
 // depends on pressure (pressure tables and Chebyshev series) the pressure is
-// the ideal-gas value P = (sum_k C_k) R T [Pa].
+// the ideal-gas value P = (sum_k C_k) R T [Pa]. Slices shorter than the
+// mechanism needs are a programming error and panic.
 //
 // Conventions, for all forms:
 //
@@ -29,7 +31,8 @@ import (
 //     sign(A) exp(ln|A| + b ln T - E/(R T)), so extreme published parameters
 //     (A = 1.6e88 with b = -21) neither overflow nor lose digits in the
 //     intermediate T^b; negative A is kept (duplicate steps whose sum is the
-//     physical rate), A = 0 gives k = 0.
+//     physical rate), A = 0 gives k = 0, b = E = 0 gives k = A without an
+//     exponential.
 //   - The forward rate of progress is kf [M] prod_k C_k^a_k; the exponent a_k
 //     is the reactant's stoichiometric coefficient unless Orders gives it;
 //     reverse likewise with the products and ReverseOrders. [M] is present
@@ -41,10 +44,14 @@ import (
 //     max(C, 1e-30 mol/m^3) so that a vanishing species gives a large but
 //     finite rate instead of +Inf.
 //   - The reverse rate constant is kr = kf/Kc with Kc the equilibrium
-//     constant in concentration units (EquilibriumConstants), unless the
-//     reaction gives ReverseRate, which is then used as kr for every form
-//     (an Arrhenius function of T only; it is not modulated by falloff or
-//     pressure).
+//     constant in concentration units (EquilibriumConstants; 1/Kc is
+//     limited to [e^-700, e^700], see maxExpArg), unless the reaction gives
+//     ReverseRate, which is then used as kr for every form (an Arrhenius
+//     function of T only; it is not modulated by falloff or pressure).
+//   - Collision efficiencies for [M] apply to ThreeBody, Falloff and
+//     ChemicallyActivated reactions; a ThirdBody on a PressureTable or
+//     Chebyshev reaction is ignored (their data already hold the pressure
+//     dependence).
 type Kinetics struct {
 	m *kineticsModel // immutable, shared between clones
 	w kineticsWork   // per-instance work arrays and per-T cache

@@ -3,64 +3,39 @@ package chem_test
 import (
 	"math"
 	"math/rand/v2"
-	"os"
-	"path/filepath"
 	"strings"
 	"sync"
 	"testing"
 
+	"flame1d/builtin"
 	"flame1d/chem"
-	"flame1d/chem/keyblock"
 	"flame1d/thermo"
 )
 
 // Tests on published mechanisms: GRI-Mech 3.0 (Smith et al. 1999) and the
 // n-heptane skeletal mechanism of Lu, Law, Yoo & Chen, Combust. Flame 156
-// (2009) 1542, read from ../shared/data/mechanisms with the keyblock
-// importer. They skip when that folder is absent.
-
-func sharedMechanismsDir(tb testing.TB) string {
-	tb.Helper()
-	dir, err := os.Getwd()
-	if err != nil {
-		tb.Fatal(err)
-	}
-	for {
-		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
-			break
-		}
-		parent := filepath.Dir(dir)
-		if parent == dir {
-			tb.Skip("repository root (go.mod) not found; shared mechanism data unavailable")
-		}
-		dir = parent
-	}
-	shared := filepath.Join(dir, "..", "shared", "data", "mechanisms")
-	if _, err := os.Stat(shared); err != nil {
-		tb.Skipf("shared mechanism data not found at %s: %v", shared, err)
-	}
-	return shared
-}
+// (2009) 1542, as shipped in package builtin (converted from the published
+// files).
 
 var (
-	sharedMu   sync.Mutex
-	sharedMech = map[string]*chem.Mechanism{}
+	builtinMu   sync.Mutex
+	builtinMech = map[string]*chem.Mechanism{}
 )
 
-// publishedMechanism reads one of the shared sets (once per test binary).
-func publishedMechanism(tb testing.TB, set string) *chem.Mechanism {
+// publishedMechanism returns a built-in mechanism (parsed once per test
+// binary; the tests only read it).
+func publishedMechanism(tb testing.TB, name string) *chem.Mechanism {
 	tb.Helper()
-	dir := filepath.Join(sharedMechanismsDir(tb), set)
-	sharedMu.Lock()
-	defer sharedMu.Unlock()
-	if m, ok := sharedMech[set]; ok {
+	builtinMu.Lock()
+	defer builtinMu.Unlock()
+	if m, ok := builtinMech[name]; ok {
 		return m
 	}
-	m, _, err := keyblock.ReadFiles(filepath.Join(dir, "mech.inp"), filepath.Join(dir, "thermo.dat"), filepath.Join(dir, "transport.dat"))
+	m, err := builtin.Mechanism(name)
 	if err != nil {
-		tb.Fatalf("reading %s: %v", set, err)
+		tb.Fatalf("built-in mechanism %s: %v", name, err)
 	}
-	sharedMech[set] = m
+	builtinMech[name] = m
 	return m
 }
 
