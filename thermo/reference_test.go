@@ -70,6 +70,8 @@ func janafTolerance(species string, T float64, quantity string) float64 {
 	return 0.005
 }
 
+// TestSpeciesThermoAgainstJANAF checks the GRI-Mech 3.0 thermo data that
+// flame1d ships (package builtin) against the JANAF tables.
 func TestSpeciesThermoAgainstJANAF(t *testing.T) {
 	s := gri30Set(t)
 	for _, r := range janaf {

@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"flame1d/builtin"
 	"flame1d/chem"
 	"flame1d/chem/keyblock"
 	"flame1d/thermo"
@@ -56,12 +57,12 @@ func sharedThermo(t testing.TB, set string) []thermo.Species {
 	return sp
 }
 
+// gri30Set is the species set of the shipped GRI-Mech 3.0 (package
+// builtin): the checks against reference tables are about the data flame1d
+// ships.
 func gri30Set(t testing.TB) *thermo.SpeciesSet {
 	t.Helper()
-	s, err := thermo.NewSpeciesSet(sharedThermo(t, "gri30"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	_, s := gri30Mechanism(t)
 	return s
 }
 
@@ -78,14 +79,13 @@ func moles(t testing.TB, s *thermo.SpeciesSet, pairs map[string]float64) []float
 	return n
 }
 
-// gri30Mechanism imports GRI-Mech 3.0 with its reactions and returns it with
-// a species set in the same species order.
+// gri30Mechanism returns the shipped GRI-Mech 3.0 with a species set in
+// the same species order.
 func gri30Mechanism(t testing.TB) (*chem.Mechanism, *thermo.SpeciesSet) {
 	t.Helper()
-	dir := filepath.Join(mechanismsDir(t), "gri30")
-	m, _, err := keyblock.ReadFiles(filepath.Join(dir, "mech.inp"), filepath.Join(dir, "thermo.dat"), "")
+	m, err := builtin.Mechanism("gri30")
 	if err != nil {
-		t.Fatalf("importing GRI-Mech 3.0: %v", err)
+		t.Fatalf("built-in GRI-Mech 3.0: %v", err)
 	}
 	sp := make([]thermo.Species, len(m.Species))
 	for i := range m.Species {
