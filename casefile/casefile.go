@@ -15,6 +15,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"flame1d/fuel"
 	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
@@ -26,7 +27,12 @@ type Case struct {
 	Title     string
 	Mechanism string // built-in name or path (relative paths resolved against the case file's folder)
 
-	Fuel             map[string]float64 // mole fractions by species name (normalised)
+	// Fuel is the fuel the case burns: [mixture] fuel as inline mole
+	// fractions (a neat fuel or surrogate named "fuel"), or the name of one
+	// of the [fuels.NAME] tables.
+	Fuel fuel.Spec
+	// Fuels are all [fuels.NAME] tables in file order (compare uses them).
+	Fuels            []fuel.Spec
 	Oxidizer         map[string]float64 // mole fractions (normalised); default air
 	EquivalenceRatio float64
 	Temperature      float64 // unburned, K
@@ -36,6 +42,26 @@ type Case struct {
 	Solver SolverSettings
 	Output OutputSettings
 	Sweep  *SweepSettings // nil when the case has no [sweep] table
+	// Compare is the [compare] table (nil when absent).
+	Compare *CompareSettings
+}
+
+// CompareSettings mirror the [compare] table: which fuels, over which
+// equivalence ratios, and where to overlay profiles.
+type CompareSettings struct {
+	Fuels             []string
+	EquivalenceRatios []float64
+	ProfilePhi        float64 // equivalence ratio of the profile overlay
+}
+
+// FuelByName returns the named [fuels.NAME] entry.
+func (c *Case) FuelByName(name string) (fuel.Spec, bool) {
+	for _, f := range c.Fuels {
+		if f.Name == name {
+			return f, true
+		}
+	}
+	return fuel.Spec{}, false
 }
 
 // GridSettings mirror the [grid] table; zero means "solver default".
@@ -70,7 +96,7 @@ type raw struct {
 	Title     string `toml:"title"`
 	Mechanism string `toml:"mechanism"`
 	Mixture   struct {
-		Fuel             map[string]float64 `toml:"fuel"`
+		Fuel             fuelField          `toml:"fuel"`
 		Oxidizer         map[string]float64 `toml:"oxidizer"`
 		EquivalenceRatio *float64           `toml:"equivalence_ratio"`
 		Temperature      any                `toml:"temperature"`
@@ -94,7 +120,13 @@ type raw struct {
 	Output struct {
 		Directory string `toml:"directory"`
 	} `toml:"output"`
-	Sweep *rawSweep `toml:"sweep"`
+	Sweep   *rawSweep            `toml:"sweep"`
+	Fuels   map[string]fuel.Spec `toml:"fuels"`
+	Compare *struct {
+		Fuels             []string  `toml:"fuels"`
+		EquivalenceRatios []float64 `toml:"equivalence_ratios"`
+		ProfilePhi        *float64  `toml:"profile_equivalence_ratio"`
+	} `toml:"compare"`
 }
 
 // FieldError is a problem with one key of a case file.
@@ -145,11 +177,58 @@ func Parse(src []byte, file string) (*Case, error) {
 	if c.Mechanism == "" {
 		c.Mechanism = "gri30"
 	}
-	if len(r.Mixture.Fuel) == 0 {
-		return nil, fe("mixture.fuel", "missing: give the fuel as mole fractions, e.g. fuel = { CH4 = 1.0 }")
+	for _, k := range md.Keys() {
+		if len(k) == 2 && k[0] == "fuels" {
+			spec := r.Fuels[k[1]]
+			spec.Name = k[1]
+			c.Fuels = append(c.Fuels, spec)
+		}
 	}
-	if c.Fuel, err = normalised(r.Mixture.Fuel); err != nil {
-		return nil, fe("mixture.fuel", "%v", err)
+	switch f := r.Mixture.Fuel; {
+	case f.err != nil:
+		return nil, fe("mixture.fuel", "%v", f.err)
+	case f.name != "":
+		spec, ok := c.FuelByName(f.name)
+		if !ok {
+			return nil, fe("mixture.fuel", "no [fuels.%s] table in this file (defined: %s)", f.name, fuelNames(c.Fuels))
+		}
+		c.Fuel = spec
+	case f.composition != nil:
+		norm, err := normalised(f.composition)
+		if err != nil {
+			return nil, fe("mixture.fuel", "%v", err)
+		}
+		c.Fuel = fuel.Spec{Name: "fuel", Composition: norm}
+	default:
+		return nil, fe("mixture.fuel", "missing: give the fuel as mole fractions, e.g. fuel = { CH4 = 1.0 }, or the name of a [fuels.NAME] table")
+	}
+	if r.Compare != nil {
+		cmp := &CompareSettings{Fuels: r.Compare.Fuels, EquivalenceRatios: r.Compare.EquivalenceRatios, ProfilePhi: valueOr(r.Mixture.EquivalenceRatio, 1)}
+		if r.Compare.ProfilePhi != nil {
+			cmp.ProfilePhi = *r.Compare.ProfilePhi
+		}
+		if len(cmp.Fuels) == 0 {
+			for _, f := range c.Fuels {
+				cmp.Fuels = append(cmp.Fuels, f.Name)
+			}
+		}
+		if len(cmp.Fuels) < 2 {
+			return nil, fe("compare.fuels", "needs at least two fuels to compare (define [fuels.NAME] tables)")
+		}
+		for _, name := range cmp.Fuels {
+			if _, ok := c.FuelByName(name); !ok {
+				return nil, fe("compare.fuels", "no [fuels.%s] table in this file (defined: %s)", name, fuelNames(c.Fuels))
+			}
+		}
+		for _, phi := range cmp.EquivalenceRatios {
+			if !(phi > 0 && phi < 100) {
+				return nil, fe("compare.equivalence_ratios", "equivalence ratios must be positive (got %g)", phi)
+			}
+		}
+		if !(cmp.ProfilePhi > 0) {
+			return nil, fe("compare.profile_equivalence_ratio", "must be positive")
+		}
+		c.Compare = cmp
 	}
 	c.Oxidizer = DefaultOxidizer()
 	if len(r.Mixture.Oxidizer) > 0 {
@@ -259,4 +338,51 @@ func normalised(comp map[string]float64) (map[string]float64, error) {
 		out[n] = comp[n] / sum
 	}
 	return out, nil
+}
+
+func fuelNames(fs []fuel.Spec) string {
+	if len(fs) == 0 {
+		return "none"
+	}
+	names := make([]string, len(fs))
+	for i, f := range fs {
+		names[i] = f.Name
+	}
+	return strings.Join(names, ", ")
+}
+
+func valueOr(v *float64, def float64) float64 {
+	if v == nil {
+		return def
+	}
+	return *v
+}
+
+// fuelField is [mixture] fuel: inline mole fractions or a fuel name.
+type fuelField struct {
+	name        string
+	composition map[string]float64
+	err         error
+}
+
+func (f *fuelField) UnmarshalTOML(v any) error {
+	switch x := v.(type) {
+	case string:
+		f.name = x
+	case map[string]any:
+		f.composition = map[string]float64{}
+		for n, a := range x {
+			switch y := a.(type) {
+			case int64:
+				f.composition[n] = float64(y)
+			case float64:
+				f.composition[n] = y
+			default:
+				f.err = fmt.Errorf("amount of %s must be a number", n)
+			}
+		}
+	default:
+		f.err = fmt.Errorf("expected mole fractions { CH4 = 1.0 } or a fuel name, got %T", v)
+	}
+	return nil
 }

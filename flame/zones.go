@@ -11,6 +11,9 @@ type Zones struct {
 	// Pyrolysis has one entry per fuel species: the zone in which its mass
 	// fraction falls from 95% to 5% of its unburned value.
 	Pyrolysis []PyrolysisZone `json:"pyrolysis"`
+	// Unconsumed lists fuel species that do not fall to 5% of their
+	// unburned amount inside the domain (e.g. H2 of a rich pool).
+	Unconsumed []string `json:"unconsumed_fuel_species,omitempty"`
 	// PoolPeaks are the maxima of the main cracking-pool species (light
 	// hydrocarbons and H2 that are not themselves fuel species) whose peak
 	// mole fraction exceeds PoolPeakThreshold.
@@ -90,7 +93,8 @@ func (p *Profile) Zones(fuelSpecies []string, inletY []float64) (*Zones, error) 
 		x95, ok1 := p.firstCrossing(frac, 0.95)
 		x05, ok2 := p.firstCrossing(frac, 0.05)
 		if !ok1 || !ok2 {
-			return nil, fmt.Errorf("zones: fuel species %s is not consumed inside the domain (the flame did not burn it)", name)
+			z.Unconsumed = append(z.Unconsumed, name)
+			continue
 		}
 		zn := PyrolysisZone{Species: name, StartX: x95, EndX: x05,
 			StartT: p.interp(p.T, x95), EndT: p.interp(p.T, x05), ResidenceTime: p.residenceTime(x95, x05)}

@@ -17,10 +17,12 @@ import (
 type FlameSummary struct {
 	Title                string             `json:"title,omitempty"`
 	Mechanism            string             `json:"mechanism"`
-	Fuel                 map[string]float64 `json:"fuel_mole_fractions"`
+	Fuel                 string             `json:"fuel"`
+	FuelComposition      map[string]float64 `json:"fuel_mole_fractions"`
 	Oxidizer             map[string]float64 `json:"oxidizer_mole_fractions"`
 	EquivalenceRatio     float64            `json:"equivalence_ratio"`
 	UnburnedTemperatureK float64            `json:"unburned_temperature_K"`
+	InletTemperatureK    float64            `json:"inlet_temperature_K"`
 	PressurePa           float64            `json:"pressure_Pa"`
 	Converged            bool               `json:"converged"`
 	FlameSpeed           float64            `json:"flame_speed_m_s"`
@@ -73,10 +75,13 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 		fmt.Fprintf(&b, "%s\n", s.Title)
 	}
 	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
-	fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.Fuel))
+	fmt.Fprintf(&b, "  fuel                    %s: %s\n", s.Fuel, formatComposition(s.FuelComposition))
 	fmt.Fprintf(&b, "  oxidizer                %s\n", formatComposition(s.Oxidizer))
 	fmt.Fprintf(&b, "  equivalence ratio       %.4g\n", s.EquivalenceRatio)
 	fmt.Fprintf(&b, "  unburned T, P           %.2f K, %.6g Pa (%.4g atm)\n", s.UnburnedTemperatureK, s.PressurePa, s.PressurePa/101325)
+	if d := s.InletTemperatureK - s.UnburnedTemperatureK; d != 0 {
+		fmt.Fprintf(&b, "  inlet temperature       %.2f K (pre-cracked pool: %+.1f K for the cracking enthalpy)\n", s.InletTemperatureK, d)
+	}
 	fmt.Fprintf(&b, "  laminar flame speed     %.4f m/s  (%.2f cm/s)\n", s.FlameSpeed, 100*s.FlameSpeed)
 	fmt.Fprintf(&b, "  burned temperature      %.1f K   (adiabatic equilibrium %.1f K)\n", s.BurnedTemperature, s.AdiabaticTemperature)
 	fmt.Fprintf(&b, "  thermal thickness       %.4g mm\n", 1e3*s.ThermalThickness)

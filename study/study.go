@@ -23,12 +23,15 @@ import (
 	"flame1d/thermo"
 )
 
-// Study is a case prepared for solving: mechanism, thermo set and solver.
-// A Study may be used by one goroutine at a time; make one per goroutine for
-// parallel work (NewStudy is cheap compared with a flame).
+// Study is a case prepared for solving one fuel: the fuel resolved on the
+// mechanism (for a cracked pool in finite-rate mode, the mechanism with the
+// pseudo-fuel and its global step), the thermo set and the solver. A Study
+// may be used by one goroutine at a time; make one per goroutine for
+// parallel work (New is cheap compared with a flame).
 type Study struct {
 	Case      *casefile.Case
-	Mechanism *chem.Mechanism
+	Fuel      *fuel.Resolved
+	Mechanism *chem.Mechanism // what the flame burns (Fuel.Mechanism)
 	Set       *thermo.SpeciesSet
 	Solver    *flame.Solver
 	Settings  flame.Settings
@@ -68,27 +71,31 @@ func LoadMechanism(c *casefile.Case) (*chem.Mechanism, error) {
 	return m, nil
 }
 
-// New prepares a case. progress, when non-nil, receives the solver's stage
-// messages.
+// New prepares a case for its own fuel. progress, when non-nil, receives
+// the solver's stage messages.
 func New(c *casefile.Case, progress io.Writer) (*Study, error) {
 	mech, err := LoadMechanism(c)
 	if err != nil {
 		return nil, err
 	}
-	return NewWithMechanism(c, mech, progress)
+	return NewForFuel(c, mech, c.Fuel, progress)
 }
 
-// NewWithMechanism prepares a case on an already loaded mechanism.
-func NewWithMechanism(c *casefile.Case, mech *chem.Mechanism, progress io.Writer) (*Study, error) {
-	set, err := fuel.SpeciesSet(mech)
+// NewForFuel prepares a case for any fuel on an already loaded mechanism.
+func NewForFuel(c *casefile.Case, mech *chem.Mechanism, spec fuel.Spec, progress io.Writer) (*Study, error) {
+	base, err := fuel.SpeciesSet(mech)
 	if err != nil {
 		return nil, err
 	}
-	solver, err := flame.NewSolver(mech)
+	res, err := spec.Resolve(mech, base)
+	if err != nil {
+		return nil, fmt.Errorf("%s: fuel %s: %w", c.File, spec.Name, err)
+	}
+	solver, err := flame.NewSolver(res.Mechanism)
 	if err != nil {
 		return nil, err
 	}
-	return &Study{Case: c, Mechanism: mech, Set: set, Solver: solver, Settings: Settings(c, progress)}, nil
+	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, Set: res.Set, Solver: solver, Settings: Settings(c, progress)}, nil
 }
 
 // Settings maps a case's [grid] and [solver] tables onto solver settings.
@@ -137,20 +144,54 @@ func (s *Study) BaseCondition() Condition {
 	return Condition{Phi: s.Case.EquivalenceRatio, T: s.Case.Temperature, P: s.Case.Pressure}
 }
 
-// Inlet forms the premixed inlet at a condition.
-func (s *Study) Inlet(c Condition) (flame.Inlet, error) {
-	charge, err := fuel.Premixed(s.Mechanism, s.Set, s.Case.Fuel, s.Case.Oxidizer, c.Phi)
+// Inlet forms the premixed inlet at a condition. For a pre-cracked pool the
+// inlet temperature is below the unburned temperature by the cracking
+// enthalpy (fuel.Inlet.TemperatureShift).
+func (s *Study) Inlet(c Condition) (flame.Inlet, *fuel.Inlet, error) {
+	in, err := s.Fuel.Inlet(s.Case.Oxidizer, c.Phi, c.T)
 	if err != nil {
-		return flame.Inlet{}, fmt.Errorf("%s: mixture: %w", s.Case.File, err)
+		return flame.Inlet{}, nil, fmt.Errorf("%s: mixture: %w", s.Case.File, err)
 	}
-	return flame.Inlet{T: c.T, P: c.P, Y: charge.Y}, nil
+	return flame.Inlet{T: in.T, P: c.P, Y: in.Y}, in, nil
+}
+
+// FuelSpecies names the species whose consumption marks the pyrolysis zone:
+// the neat fuel's or surrogate's components, the pseudo-fuel of a
+// finite-rate pool, or the hydrocarbons of a pre-cracked pool.
+func (s *Study) FuelSpecies() []string {
+	var names []string
+	switch {
+	case s.Fuel.Kind == fuel.Neat:
+		for n := range s.Fuel.Composition {
+			names = append(names, n)
+		}
+	case s.Fuel.Mode == fuel.ModeFiniteRate:
+		names = append(names, s.Fuel.Pool.Pseudo.Name)
+	default:
+		for _, n := range s.Fuel.Pool.Species {
+			k := s.Mechanism.SpeciesIndex(n)
+			if k >= 0 && s.Mechanism.Species[k].Composition["C"] > 0 {
+				names = append(names, n)
+			}
+		}
+	}
+	sort.Strings(names)
+	return names
+}
+
+// FuelDescription is a short human description of the fuel.
+func (s *Study) FuelDescription() string {
+	if s.Fuel.Kind == fuel.Neat {
+		return s.Fuel.Name
+	}
+	return fmt.Sprintf("%s (%s, %s pool)", s.Fuel.Name, s.Fuel.Pool.Formula, s.Fuel.Mode)
 }
 
 // Solve solves the flame at a condition; start, when non-nil, is a
 // neighbouring solution to continue from (it falls back to a cold start if
 // continuation fails).
 func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
-	in, err := s.Inlet(c)
+	in, fin, err := s.Inlet(c)
 	if err != nil {
 		return nil, err
 	}
@@ -174,19 +215,14 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
 	}
-	var fuelNames []string
-	for name := range s.Case.Fuel {
-		fuelNames = append(fuelNames, name)
-	}
-	sort.Strings(fuelNames)
-	zones, err := prof.Zones(fuelNames, in.Y)
+	zones, err := prof.Zones(s.FuelSpecies(), in.Y)
 	if err != nil {
 		return nil, fmt.Errorf("%s (%v): %w", s.Case.File, c, err)
 	}
 	cs := s.Case
 	sum := &output.FlameSummary{
-		Title: cs.Title, Mechanism: cs.Mechanism, Fuel: cs.Fuel, Oxidizer: cs.Oxidizer,
-		EquivalenceRatio: c.Phi, UnburnedTemperatureK: c.T, PressurePa: c.P,
+		Title: cs.Title, Mechanism: cs.Mechanism, Fuel: s.FuelDescription(), FuelComposition: inletFuel(s, fin), Oxidizer: cs.Oxidizer,
+		EquivalenceRatio: c.Phi, UnburnedTemperatureK: c.T, InletTemperatureK: in.T, PressurePa: c.P,
 		Converged: true, FlameSpeed: prof.FlameSpeed, MassFlux: prof.MassFlux, BurnedTemperature: prof.BurnedT,
 		AdiabaticTemperature: sol.AdiabaticT, ThermalThickness: prof.ThermalThick, PeakHeatReleaseX: prof.PeakHeatReleaseX,
 		GridPoints: sol.Points(), DomainLength: sol.X[len(sol.X)-1] - sol.X[0],
@@ -223,4 +259,27 @@ func WriteFlame(dir string, r *Result) error {
 		return err
 	}
 	return output.WriteFileAtomic(filepath.Join(dir, "summary.json"), r.Summary.WriteJSON)
+}
+
+// inletFuel lists the fuel-side species of the inlet by mole fraction
+// relative to the fuel (the neat composition, the pseudo-fuel, or the pool).
+func inletFuel(s *Study, in *fuel.Inlet) map[string]float64 {
+	out := map[string]float64{}
+	switch {
+	case s.Fuel.Kind == fuel.Neat:
+		for n, x := range s.Fuel.Composition {
+			out[n] = x
+		}
+	case s.Fuel.Mode == fuel.ModeFiniteRate:
+		out[s.Fuel.Pool.Pseudo.Name] = 1
+	default:
+		total := 0.0
+		for _, m := range s.Fuel.Pool.Moles {
+			total += m
+		}
+		for i, n := range s.Fuel.Pool.Species {
+			out[n] = s.Fuel.Pool.Moles[i] / total
+		}
+	}
+	return out
 }
