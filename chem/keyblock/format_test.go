@@ -446,3 +446,30 @@ func TestBlocksOnOneLine(t *testing.T) {
 		t.Fatalf("err %v; %d elements, %d species, %d reactions; %v", err, len(m.Elements), len(m.Species), len(m.Reactions), probs)
 	}
 }
+
+// TestTransportGeometryWarning flags a geometry that contradicts the atom
+// count, at the transport line.
+func TestTransportGeometryWarning(t *testing.T) {
+	var tr strings.Builder
+	for _, s := range testSpecies {
+		geom := 2
+		switch atoms := len(s) / 2; {
+		case s[0] == "H" || s[0] == "O" || s[0] == "AR":
+			geom = 0
+		case atoms == 1 && s[2] == 2, s[0] == "OH", s[0] == "OH*":
+			geom = 1
+		}
+		if s[0] == "H2" {
+			geom = 0 // wrong on purpose: H2 is linear
+		}
+		fmt.Fprintf(&tr, "%s %d 100.0 3.0 0.0 0.0 1.0\n", s[0], geom)
+	}
+	_, probs, err := Read(strings.NewReader(mechHeader("REACTIONS")+"END\n"), nil, strings.NewReader(tr.String()), "t.inp", "", "t.tran")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(probs) != 1 || !probs[0].Warning || probs[0].Pos != (chem.Position{File: "t.tran", Line: 3}) ||
+		!strings.Contains(probs[0].Message, "species 'H2' has several atoms but its transport geometry is 0") {
+		t.Errorf("problems:\n%s", problemText(probs))
+	}
+}

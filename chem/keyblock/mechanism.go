@@ -370,9 +370,9 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 	if haveTransport {
 		wantTransport = func(n string) bool { return isSpecies(mf.index, n) }
 	}
-	var trans map[string]chem.TransportParams
+	var trans map[string]transportEntry
 	if haveTransport {
-		trans = map[string]chem.TransportParams{}
+		trans = map[string]transportEntry{}
 		for n, t := range parseTransport(transportLines, files[2], wantTransport, p) {
 			trans[strings.ToUpper(n)] = t
 		}
@@ -395,9 +395,8 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 		}
 		if haveTransport {
 			if t, ok := trans[strings.ToUpper(d.name)]; ok {
-				t := t
-				sp.Transport = &t
-				checkGeometry(&sp, files[2], p)
+				sp.Transport = &t.params
+				checkGeometry(&sp, chem.Position{File: files[2], Line: t.line}, p)
 			} else {
 				p.errorf(d.pos, "species '%s' has no transport line in %s", d.name, files[2])
 			}
@@ -414,7 +413,7 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 }
 
 // checkGeometry warns when the transport geometry contradicts the atom count.
-func checkGeometry(sp *chem.Species, file string, p *problemList) {
+func checkGeometry(sp *chem.Species, pos chem.Position, p *problemList) {
 	atoms := 0.0
 	for _, n := range sp.Composition {
 		atoms += n
@@ -433,7 +432,7 @@ func checkGeometry(sp *chem.Species, file string, p *problemList) {
 		msg = "two atoms but its transport geometry is 2 (nonlinear)"
 	}
 	if msg != "" {
-		p.warnf(chem.Position{File: file}, "species '%s' has %s", sp.Name, msg)
+		p.warnf(pos, "species '%s' has %s", sp.Name, msg)
 	}
 }
 

@@ -29,9 +29,12 @@ func ReadTransport(r io.Reader, file string) (map[string]chem.TransportParams, [
 		return nil, nil, err
 	}
 	var p problemList
-	tr := parseTransport(lines, file, nil, &p)
+	out := map[string]chem.TransportParams{}
+	for name, e := range parseTransport(lines, file, nil, &p) {
+		out[name] = e.params
+	}
 	probs, verr := p.result()
-	return tr, probs, verr
+	return out, probs, verr
 }
 
 type transportEntry struct {
@@ -41,9 +44,10 @@ type transportEntry struct {
 
 // parseTransport reads transport lines. When wanted is non-nil, defects in
 // lines for species it rejects are only warnings (generic databases carry
-// many species a mechanism does not use).
-func parseTransport(lines []srcLine, file string, wanted func(string) bool, p *problemList) map[string]chem.TransportParams {
-	out := map[string]chem.TransportParams{}
+// many species a mechanism does not use). Entries are keyed by the name as
+// written.
+func parseTransport(lines []srcLine, file string, wanted func(string) bool, p *problemList) map[string]transportEntry {
+	out := map[string]transportEntry{}
 	first := map[string]transportEntry{} // upper-case name -> first entry
 	for _, ln := range lines {
 		s := stripComment(ln.text)
@@ -106,7 +110,7 @@ func parseTransport(lines []srcLine, file string, wanted func(string) bool, p *p
 			continue
 		}
 		first[key] = transportEntry{tp, ln.num}
-		out[name] = tp
+		out[name] = first[key]
 	}
 	return out
 }
