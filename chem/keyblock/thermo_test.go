@@ -20,6 +20,18 @@ func errorCount(ps []chem.Problem) int {
 	return n
 }
 
+// readSharedThermo reads the thermo file of a shared set; it fails the test
+// on any error.
+func readSharedThermo(t *testing.T, set string) ([]ThermoRecord, []chem.Problem) {
+	t.Helper()
+	f, path := openShared(t, set, "thermo.dat")
+	recs, probs, err := ReadThermo(f, path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return recs, probs
+}
+
 func findRecord(recs []ThermoRecord, name string) *ThermoRecord {
 	for i := range recs {
 		if strings.EqualFold(recs[i].Name, name) {
@@ -78,11 +90,7 @@ func TestReadThermoSharedSets(t *testing.T) {
 // about 0.1 % in cp and s and 0.1 kJ/mol in h; the tolerances below are
 // 0.5 % and 0.3 kJ/mol, still far tighter than any column mis-read.
 func TestThermoAgainstJANAF(t *testing.T) {
-	f, path := openShared(t, "gri30", "thermo.dat")
-	recs, _, err := ReadThermo(f, path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	recs, _ := readSharedThermo(t, "gri30")
 	const R = thermo.GasConstant
 	tests := []struct {
 		species  string
@@ -131,11 +139,7 @@ func TestThermoAgainstJANAF(t *testing.T) {
 // unusual ways (see each set's PROVENANCE.md).
 func TestThermoColumnQuirks(t *testing.T) {
 	t.Run("gri30 per-species T mid", func(t *testing.T) {
-		f, path := openShared(t, "gri30", "thermo.dat")
-		recs, _, err := ReadThermo(f, path)
-		if err != nil {
-			t.Fatal(err)
-		}
+		recs, _ := readSharedThermo(t, "gri30")
 		// gri30/PROVENANCE.md: HCNO, HOCN, HNCO have T mid 1382, 1368, 1478 K.
 		for name, tmid := range map[string]float64{"HCNO": 1382, "HOCN": 1368, "HNCO": 1478, "O": 1000} {
 			if r := findRecord(recs, name); r == nil || r.Thermo.TMid != tmid {
@@ -147,11 +151,7 @@ func TestThermoColumnQuirks(t *testing.T) {
 		}
 	})
 	t.Run("nheptane T mid spilling into column 74", func(t *testing.T) {
-		f, path := openShared(t, "nheptane-sk68", "thermo.dat")
-		recs, _, err := ReadThermo(f, path)
-		if err != nil {
-			t.Fatal(err)
-		}
+		recs, _ := readSharedThermo(t, "nheptane-sk68")
 		// Line "oh  ... 300.000  5000.000 1357.000    01" of the file.
 		if r := findRecord(recs, "oh"); r == nil || r.Thermo.TMid != 1357 || r.Composition["O"] != 1 || r.Composition["H"] != 1 {
 			t.Errorf("oh: %+v", r)
@@ -162,11 +162,7 @@ func TestThermoColumnQuirks(t *testing.T) {
 		}
 	})
 	t.Run("aramco duplicate and 15th field", func(t *testing.T) {
-		f, path := openShared(t, "c0c4-aramco13", "thermo.dat")
-		recs, probs, err := ReadThermo(f, path)
-		if err != nil {
-			t.Fatal(err)
-		}
+		recs, probs := readSharedThermo(t, "c0c4-aramco13")
 		r := findRecord(recs, "IIC4H7Q2-T")
 		if r == nil {
 			t.Fatal("IIC4H7Q2-T missing")
@@ -190,11 +186,7 @@ func TestThermoColumnQuirks(t *testing.T) {
 		}
 	})
 	t.Run("thermo-extra graphite", func(t *testing.T) {
-		f, path := openShared(t, "thermo-extra", "thermo.dat")
-		recs, _, err := ReadThermo(f, path)
-		if err != nil {
-			t.Fatal(err)
-		}
+		recs, _ := readSharedThermo(t, "thermo-extra")
 		r := findRecord(recs, "CSOLID")
 		if r == nil || len(r.Composition) != 1 || r.Composition["C"] != 1 {
 			t.Fatalf("CSOLID: %+v", r)
