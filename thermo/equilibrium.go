@@ -681,20 +681,26 @@ func (q *equilibrium) applyCondensedStep(lambda float64) bool {
 // elementBalanceOK reports whether every independent element balance holds
 // to the relative tolerance tol.
 func (q *equilibrium) elementBalanceOK(tol float64) bool {
-	nE := len(q.elem)
-	for i := 0; i < nE; i++ {
-		s := -q.b[i]
-		for j := range q.gas {
-			s += q.ag[j*nE+i] * q.n[j]
-		}
-		for c := range q.cond {
-			s += q.ac[c*nE+i] * q.nc[c]
-		}
-		if !(math.Abs(s) <= tol*q.b[i]) {
+	for i := range q.elem {
+		if !(math.Abs(q.elementExcess(i)) <= tol*q.b[i]) {
 			return false
 		}
 	}
 	return true
+}
+
+// elementExcess returns sum_j a_ij n_j + sum_c a_ic n_c - b_i for the
+// independent element i.
+func (q *equilibrium) elementExcess(i int) float64 {
+	nE := len(q.elem)
+	s := -q.b[i]
+	for j := range q.gas {
+		s += q.ag[j*nE+i] * q.n[j]
+	}
+	for c := range q.cond {
+		s += q.ac[c*nE+i] * q.nc[c]
+	}
+	return s
 }
 
 // fromPotentials sets every gas amount from the element potentials, the
@@ -731,14 +737,7 @@ func (q *equilibrium) residual() (worst, sq float64) {
 	}
 	nTot = sumN
 	for i := 0; i < nE; i++ {
-		s := -q.b[i]
-		for j := range q.gas {
-			s += q.ag[j*nE+i] * q.n[j]
-		}
-		for c := range q.cond {
-			s += q.ac[c*nE+i] * q.nc[c]
-		}
-		add(s / q.b[i])
+		add(q.elementExcess(i) / q.b[i])
 	}
 	N := math.Exp(q.lnN)
 	add((sumN - N) / N)

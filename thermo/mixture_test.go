@@ -341,3 +341,36 @@ func BenchmarkMixtureProperties(b *testing.B) {
 		_ = s.CpMass(1500, Y) + s.EnthalpyMass(1500, Y)
 	}
 }
+
+func TestSpeciesVectorProperties(t *testing.T) {
+	s := testSet(t)
+	n := s.Len()
+	T := 1234.5
+	mole := [4][]float64{make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)}
+	mass := [4][]float64{make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)}
+	s.SpeciesCpMole(T, mole[0])
+	s.SpeciesEnthalpyMole(T, mole[1])
+	s.SpeciesEntropyMole(T, mole[2])
+	s.SpeciesGibbsMole(T, mole[3])
+	s.SpeciesCpMass(T, mass[0])
+	s.SpeciesEnthalpyMass(T, mass[1])
+	s.SpeciesEntropyMass(T, mass[2])
+	s.SpeciesGibbsMass(T, mass[3])
+	for k := range s.Species {
+		sp := &s.Species[k]
+		want := [4]float64{sp.CpMole(T), sp.EnthalpyMole(T), sp.EntropyMole(T), sp.GibbsMole(T)}
+		for q := range want {
+			if relErr(mole[q][k], want[q]) > 1e-14 || relErr(mass[q][k], want[q]/s.MolarMass[k]) > 1e-14 {
+				t.Errorf("%s quantity %d: %g, %g per kg; want %g", sp.Name, q, mole[q][k], mass[q][k], want[q])
+			}
+		}
+		// g = h - T s exactly.
+		if d := want[3] - (want[1] - T*want[2]); math.Abs(d) > 1e-9*math.Abs(want[1]-T*want[2]) {
+			t.Errorf("%s: g - (h - T s) = %g", sp.Name, d)
+		}
+	}
+	// Constant-cp species: Δh_f(298.15) is the value it was built with.
+	if got := s.Species[s.Index("CO2")].FormationEnthalpy(); math.Abs(got+393.51e3) > 1e-9 {
+		t.Errorf("CO2 formation enthalpy %g J/mol, want -393510", got)
+	}
+}

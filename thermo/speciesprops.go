@@ -62,33 +62,34 @@ func (s *SpeciesSet) SpeciesGibbsMole(T float64, g []float64) {
 // SpeciesCpMass writes each species' specific heat capacity cp_k/W_k,
 // J/(kg K), into cp.
 func (s *SpeciesSet) SpeciesCpMass(T float64, cp []float64) {
-	for k := range s.Species {
-		cp[k] = GasConstant * s.Species[k].Thermo.CpR(T) * s.invMass[k]
-	}
+	s.SpeciesCpMole(T, cp)
+	s.perMass(cp)
 }
 
 // SpeciesEnthalpyMass writes each species' specific enthalpy h_k/W_k, J/kg,
 // into h.
 func (s *SpeciesSet) SpeciesEnthalpyMass(T float64, h []float64) {
-	rt := GasConstant * T
-	for k := range s.Species {
-		h[k] = rt * s.Species[k].Thermo.HRT(T) * s.invMass[k]
-	}
+	s.SpeciesEnthalpyMole(T, h)
+	s.perMass(h)
 }
 
 // SpeciesEntropyMass writes each species' standard-state specific entropy
 // s°_k/W_k, J/(kg K), into sStd.
 func (s *SpeciesSet) SpeciesEntropyMass(T float64, sStd []float64) {
-	for k := range s.Species {
-		sStd[k] = GasConstant * s.Species[k].Thermo.SR(T) * s.invMass[k]
-	}
+	s.SpeciesEntropyMole(T, sStd)
+	s.perMass(sStd)
 }
 
 // SpeciesGibbsMass writes each species' standard-state specific Gibbs
 // energy g°_k/W_k, J/kg, into g.
 func (s *SpeciesSet) SpeciesGibbsMass(T float64, g []float64) {
-	rt := GasConstant * T
-	for k := range s.Species {
-		g[k] = rt * s.Species[k].Thermo.GRT(T) * s.invMass[k]
+	s.SpeciesGibbsMole(T, g)
+	s.perMass(g)
+}
+
+// perMass divides per-mole species values by the molar masses in place.
+func (s *SpeciesSet) perMass(v []float64) {
+	for k, inv := range s.invMass {
+		v[k] *= inv
 	}
 }
