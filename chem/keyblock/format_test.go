@@ -285,6 +285,7 @@ func brokenCases() []brokenCase {
 	h := mechHeader("REACTIONS")
 	return []brokenCase{
 		{name: "unbalanced", text: h + "H+O2<=>OH 1 0 0\nEND\n", want: "is not element-balanced: O +1"},
+		{name: "non-ASCII species name", text: strings.Replace(h, "A1\t", "A1 CH\xe9\t", 1) + "END\n", line: 9, abs: true, want: "cannot be a species name"},
 		{name: "unknown species", text: h + "CH2X+O2=CH2O+O 1 0 0\nEND\n", want: "unknown species 'CH2X' in reaction 'CH2X+O2=CH2O+O'"},
 		{name: "bad number", text: h + "H+O2<=>O+OH 1.0E1x4 0 0\nEND\n", want: `bad Arrhenius parameter "1.0E1x4"`},
 		{name: "bad number in aux", text: h + "H+O2(+M)<=>HO2(+M) 1 0 0\n LOW/1.0 2.0 abc/\nEND\n", line: 1, want: `LOW: bad number "abc"`},
@@ -471,5 +472,12 @@ func TestTransportGeometryWarning(t *testing.T) {
 	if len(probs) != 1 || !probs[0].Warning || probs[0].Pos != (chem.Position{File: "t.tran", Line: 3}) ||
 		!strings.Contains(probs[0].Message, "species 'H2' has several atoms but its transport geometry is 0") {
 		t.Errorf("problems:\n%s", problemText(probs))
+	}
+}
+
+func TestByteOrderMark(t *testing.T) {
+	m, probs, err := readText(t, "\ufeff"+mechHeader("REACTIONS")+"END\n")
+	if err != nil || len(probs) != 0 || m.Description != "synthetic test mechanism" {
+		t.Fatalf("err %v, description %q, problems %v", err, m.Description, probs)
 	}
 }

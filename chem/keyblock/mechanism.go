@@ -279,8 +279,8 @@ func (mf *mechFile) addSpecies(tokens []string, pos chem.Position, p *problemLis
 		if strings.EqualFold(t, "END") {
 			return outside, strings.Join(tokens[j+1:], " ")
 		}
-		if strings.ContainsAny(t, "/=") || strings.EqualFold(t, "M") {
-			p.errorf(pos, "%q cannot be a species name", t)
+		if strings.ContainsAny(t, "/=") || strings.EqualFold(t, "M") || !printableASCII(t) {
+			p.errorf(pos, "%q cannot be a species name (no '/', '=', the name M, or characters outside printable ASCII)", t)
 			continue
 		}
 		if k, dup := mf.index.find(t); dup {
@@ -291,6 +291,15 @@ func (mf *mechFile) addSpecies(tokens []string, pos chem.Position, p *problemLis
 		mf.species = append(mf.species, declared{t, pos})
 	}
 	return state, ""
+}
+
+func printableASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if s[i] <= ' ' || s[i] > '~' {
+			return false
+		}
+	}
+	return true
 }
 
 // leadingComment returns the comment block that opens a file (typically the

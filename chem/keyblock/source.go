@@ -47,6 +47,9 @@ func readLines(r io.Reader, file string) ([]srcLine, error) {
 		if len(s) > 0 || err == nil {
 			s = strings.TrimSuffix(s, "\n")
 			s = strings.TrimSuffix(s, "\r")
+			if n == 1 {
+				s = strings.TrimPrefix(s, "\ufeff") // UTF-8 byte-order mark
+			}
 			out = append(out, srcLine{num: n, text: s})
 		}
 		if err == io.EOF {
