@@ -566,3 +566,19 @@ func TestEquilibriumRandomStates(t *testing.T) {
 	}
 	t.Logf("%d random states, at most %d iterations", trials, maxIter)
 }
+
+func BenchmarkTemperatureFromEnthalpyGRI30(b *testing.B) {
+	s := gri30Set(b)
+	r, err := s.AdiabaticFlame(298.15, thermo.OneAtmosphere, premixed(b, s, map[string]float64{"CH4": 1}, dryAir, 1), thermo.EquilibriumOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	Y := make([]float64, s.Len())
+	s.MoleToMass(r.MoleFractions, Y)
+	h := s.EnthalpyMass(1900, Y)
+	for b.Loop() {
+		if _, err := s.TemperatureFromEnthalpy(h, Y, 1500); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
