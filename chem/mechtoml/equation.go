@@ -139,6 +139,10 @@ func falloffSuffix(side string) (found bool, name, rest string, err error) {
 	return found, name, rest, nil
 }
 
+// maxPlusInName is the most '+' signs one species name may contain (ion
+// names such as "C3H3+" have one); it bounds the search for a split.
+const maxPlusInName = 3
+
 // parseSide splits one side into participants, a repeated species merged
 // into one. It returns the number of generic third-body terms (M) found.
 func parseSide(side string, index func(string) int) ([]chem.Participant, int, error) {
@@ -160,7 +164,7 @@ func parseSide(side string, index func(string) int) ([]chem.Participant, int, er
 	from := make([]int, n) // previous cut of the first parse found
 	ways[0] = 1
 	for j := 1; j < n; j++ {
-		for i := 0; i < j; i++ {
+		for i := max(0, j-maxPlusInName-1); i < j; i++ {
 			if ways[i] == 0 {
 				continue
 			}

@@ -91,3 +91,25 @@ type participantView struct {
 	name string
 	c    float64
 }
+
+// TestParseLongSide: a side of many terms is split in linear time (the
+// split search is bounded by maxPlusInName) and merged.
+func TestParseLongSide(t *testing.T) {
+	names := []string{"X", "Y"}
+	index := func(s string) int {
+		for i, n := range names {
+			if n == s {
+				return i
+			}
+		}
+		return -1
+	}
+	left := strings.Repeat("X+", 4999) + "X"
+	e, err := parseEquation(left+" <=> Y", index)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(e.reactants) != 1 || e.reactants[0].Coefficient != 5000 {
+		t.Errorf("read %v, want 5000 X", e.reactants)
+	}
+}

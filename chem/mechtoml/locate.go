@@ -19,6 +19,7 @@ const pathSep = "\x00"
 func joinPath(p []string) string { return strings.Join(p, pathSep) }
 
 type locator struct {
+	keys  bool // record keys and array elements, not only table headers
 	s     string
 	i     int
 	line  int
@@ -26,9 +27,11 @@ type locator struct {
 	count map[string]int // array-of-tables path -> elements so far
 }
 
-// locate returns the line of every key path in text.
-func locate(text string) map[string]int {
-	lc := &locator{s: text, line: 1, lines: make(map[string]int, 1024), count: map[string]int{}}
+// locate returns the line of every key path in text, or, without keys,
+// of every table and array-of-tables element header only (enough for
+// Origins, and cheaper).
+func locate(text string, keys bool) map[string]int {
+	lc := &locator{keys: keys, s: text, line: 1, lines: make(map[string]int, 256), count: map[string]int{}}
 	var table []string
 	for lc.i < len(lc.s) {
 		lc.skipSpace(true)
@@ -76,6 +79,9 @@ func (lc *locator) record(path []string, line int) {
 
 // recordDotted records a dotted key a.b.c = ... and its implied tables.
 func (lc *locator) recordDotted(base int, path []string, line int) {
+	if !lc.keys {
+		return
+	}
 	for j := base + 1; j <= len(path); j++ {
 		lc.record(path[:j], line)
 	}
@@ -276,8 +282,11 @@ func (lc *locator) value(path []string) {
 				lc.i++
 				continue
 			}
-			p := append(append([]string(nil), path...), strconv.Itoa(n))
-			lc.record(p, lc.line)
+			var p []string // nil: nothing below is recorded
+			if lc.keys || len(path) == 1 {
+				p = append(append(p, path...), strconv.Itoa(n))
+				lc.record(p, lc.line)
+			}
 			before := lc.i
 			lc.value(p)
 			if lc.i == before {
@@ -311,8 +320,11 @@ func (lc *locator) value(path []string) {
 				continue
 			}
 			lc.i++
-			p := append(append([]string(nil), path...), keys...)
-			lc.recordDotted(len(path), p, line)
+			var p []string
+			if lc.keys {
+				p = append(append(p, path...), keys...)
+				lc.recordDotted(len(path), p, line)
+			}
 			lc.value(p)
 		}
 	default:

@@ -60,8 +60,8 @@ func Read(r io.Reader, file string) (*chem.Mechanism, []chem.Problem, error) {
 // reader holds the state of one Read.
 type reader struct {
 	file     string
-	lines    map[string]int // key path -> line, from locate
 	problems []chem.Problem
+	paths    [][]string // key path of each problem, for its line
 	units    units
 	declared struct{ energy, pressure, length, quantity bool }
 	mech     *chem.Mechanism
@@ -77,28 +77,46 @@ func (rd *reader) failed() bool {
 	return false
 }
 
-// line returns the line of path, or of its nearest parent that has one.
-func (rd *reader) line(path []string) int {
+// lineOf returns the line of path in lines, or of its nearest parent that
+// has one.
+func lineOf(lines map[string]int, path []string) int {
 	for j := len(path); j > 0; j-- {
-		if l, ok := rd.lines[joinPath(path[:j])]; ok {
+		if l, ok := lines[joinPath(path[:j])]; ok {
 			return l
 		}
 	}
 	return 0
 }
 
-func (rd *reader) pos(path []string) chem.Position {
-	return chem.Position{File: rd.file, Line: rd.line(path)}
-}
-
 // errorf records an error at path; label ("reaction 3 (A => B)") prefixes
-// the message when not empty.
+// the message when not empty. Lines are filled in once reading is done.
 func (rd *reader) errorf(path []string, label, format string, a ...any) {
 	msg := fmt.Sprintf(format, a...)
 	if label != "" {
 		msg = label + ": " + msg
 	}
-	rd.problems = append(rd.problems, chem.Problem{Pos: rd.pos(path), Message: msg})
+	rd.problems = append(rd.problems, chem.Problem{Pos: chem.Position{File: rd.file}, Message: msg})
+	rd.paths = append(rd.paths, path)
+}
+
+// placeProblems gives each problem its line and sorts them into file order.
+func (rd *reader) placeProblems(lines map[string]int) {
+	for i := range rd.problems {
+		rd.problems[i].Pos.Line = lineOf(lines, rd.paths[i])
+	}
+	sort.SliceStable(rd.problems, func(i, j int) bool { return rd.problems[i].Pos.Line < rd.problems[j].Pos.Line })
+}
+
+// placeOrigins sets the Origin of every species and reaction: the line of
+// its [[species]] / [[reaction]] table.
+func (rd *reader) placeOrigins(lines map[string]int, reactionIndex []int) {
+	m := rd.mech
+	for i := range m.Species {
+		m.Species[i].Origin = chem.Position{File: rd.file, Line: lineOf(lines, []string{"species", strconv.Itoa(i)})}
+	}
+	for j, i := range reactionIndex {
+		m.Reactions[j].Origin = chem.Position{File: rd.file, Line: lineOf(lines, []string{"reaction", strconv.Itoa(i)})}
+	}
 }
 
 // sub returns path extended by key (a fresh slice: paths are kept in
@@ -108,9 +126,21 @@ func sub(path []string, key ...string) []string {
 	return append(append(p, path...), key...)
 }
 
+// decodeTOML parses text, turning a panic of the TOML library (none is
+// known) into an error: no input may crash a caller.
+func decodeTOML(text string) (doc map[string]any, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			doc, err = nil, fmt.Errorf("TOML decoder failed: %v", p)
+		}
+	}()
+	_, err = toml.Decode(text, &doc)
+	return doc, err
+}
+
 func (rd *reader) read(text string) *chem.Mechanism {
-	var doc map[string]any
-	if _, err := toml.Decode(text, &doc); err != nil {
+	doc, err := decodeTOML(text)
+	if err != nil {
 		var pe toml.ParseError
 		if errors.As(err, &pe) {
 			rd.problems = append(rd.problems, chem.Problem{
@@ -122,8 +152,24 @@ func (rd *reader) read(text string) *chem.Mechanism {
 		}
 		return nil
 	}
-	rd.lines = locate(text)
 	rd.mech = &chem.Mechanism{}
+	reactionIndex := rd.walk(doc)
+	// Lines come from a second scan of the text: of every key when there
+	// are problems to place, else only of the table headers.
+	var lines map[string]int
+	if len(rd.problems) > 0 {
+		lines = locate(text, true)
+		rd.placeProblems(lines)
+	} else {
+		lines = locate(text, false)
+	}
+	rd.placeOrigins(lines, reactionIndex)
+	return rd.mech
+}
+
+// walk converts the decoded document. It returns, for each reaction kept,
+// its index in the file.
+func (rd *reader) walk(doc map[string]any) []int {
 	m := rd.mech
 	rd.checkKeys(doc, nil, "", "format", "name", "description", "elements", "units", "species", "reaction")
 
@@ -157,15 +203,17 @@ func (rd *reader) read(text string) *chem.Mechanism {
 	if len(reactions) > 0 {
 		m.Reactions = make([]chem.Reaction, 0, len(reactions))
 	}
+	var kept []int
 	for i, t := range reactions {
 		if r, ok := rd.readReaction(i, t); ok {
 			m.Reactions = append(m.Reactions, r)
+			kept = append(kept, i)
 		}
 	}
-	return m
+	return kept
 }
 
-// checkKeys reports every key of t that is not in allowed, in file order.
+// checkKeys reports every key of t that is not in allowed.
 func (rd *reader) checkKeys(t map[string]any, path []string, label string, allowed ...string) {
 	var unknown []string
 	for k := range t {
@@ -180,13 +228,7 @@ func (rd *reader) checkKeys(t map[string]any, path []string, label string, allow
 			unknown = append(unknown, k)
 		}
 	}
-	sort.Slice(unknown, func(i, j int) bool {
-		li, lj := rd.line(sub(path, unknown[i])), rd.line(sub(path, unknown[j]))
-		if li != lj {
-			return li < lj
-		}
-		return unknown[i] < unknown[j]
-	})
+	sort.Strings(unknown)
 	where := "at the top level"
 	if len(path) > 0 {
 		where = "in " + displayPath(path)
@@ -322,7 +364,6 @@ var kindNames = [...]string{"a plain number", "a temperature", "an energy", "a p
 // TOML integer or float is in the file's unit for that kind; a string
 // "value unit" carries its own unit.
 func (rd *reader) number(v any, path []string, label string, k kind) (float64, bool) {
-	what := keyName(path)
 	var q float64
 	unit, hasUnit := "", false
 	switch x := v.(type) {
@@ -334,21 +375,21 @@ func (rd *reader) number(v any, path []string, label string, k kind) (float64, b
 		var err error
 		q, unit, err = parseValueWithUnit(x)
 		if err != nil {
-			rd.errorf(path, label, "%s: %v", what, err)
+			rd.errorf(path, label, "%s: %v", keyName(path), err)
 			return 0, false
 		}
 		hasUnit = true
 	default:
-		rd.errorf(path, label, "%s must be a number, not %s", what, typeName(v))
+		rd.errorf(path, label, "%s must be a number, not %s", keyName(path), typeName(v))
 		return 0, false
 	}
 	if math.IsNaN(q) || math.IsInf(q, 0) {
-		rd.errorf(path, label, "%s must be finite, not %v", what, q)
+		rd.errorf(path, label, "%s must be finite, not %v", keyName(path), q)
 		return 0, false
 	}
 	si, ok := q, true
 	bad := func(format string, a ...any) {
-		rd.errorf(path, label, "%s: "+format, append([]any{what}, a...)...)
+		rd.errorf(path, label, "%s: "+format, append([]any{keyName(path)}, a...)...)
 		ok = false
 	}
 	switch k {
@@ -383,8 +424,13 @@ func (rd *reader) number(v any, path []string, label string, k kind) (float64, b
 		}
 		si = scaleBy(q, f)
 	case diameter, dipole, polarizability:
-		table := map[kind]map[string]func(float64) float64{diameter: lengthUnits, dipole: dipoleUnits, polarizability: volumeUnits}[k]
-		def := map[kind]string{diameter: diameterUnit, dipole: dipoleUnit, polarizability: polarizabilityUnit}[k]
+		table, def := lengthUnits, diameterUnit
+		switch k {
+		case dipole:
+			table, def = dipoleUnits, dipoleUnit
+		case polarizability:
+			table, def = volumeUnits, polarizabilityUnit
+		}
 		if !hasUnit {
 			unit = def
 		}
@@ -485,7 +531,6 @@ func speciesLabel(i int, name string) string {
 func (rd *reader) readSpecies(i int, t map[string]any) {
 	path := []string{"species", strconv.Itoa(i)}
 	s := &rd.mech.Species[i]
-	s.Origin = rd.pos(path)
 	if v, ok := t["name"]; !ok {
 		rd.errorf(path, speciesLabel(i, ""), "no name")
 	} else if name, ok := rd.str(v, sub(path, "name"), speciesLabel(i, ""), "name"); ok {
@@ -622,7 +667,7 @@ var rateTables = []struct {
 
 func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 	path := []string{"reaction", strconv.Itoa(i)}
-	r := chem.Reaction{Origin: rd.pos(path)}
+	var r chem.Reaction
 	before := len(rd.problems)
 	text := ""
 	if v, ok := t["equation"]; !ok {

@@ -158,18 +158,18 @@ func TestReadHandWritten(t *testing.T) {
 		t.Errorf("H2 transport read as %+v", h2.Transport)
 	}
 	// Origins point at the [[species]] / [[reaction]] headers.
-	if o := m.Species[0].Origin; o.File != "hand.toml" || o.Line != lineOf(tinyHeader, `name = "H"`)-1 {
+	if o := m.Species[0].Origin; o.File != "hand.toml" || o.Line != textLine(tinyHeader, `name = "H"`)-1 {
 		t.Errorf("H origin %+v", o)
 	}
-	if o := m.Reactions[1].Origin; o.Line != lineOf(tinyHeader+tinyReactions, `equation = "H + O2 (+M)`)-1 {
+	if o := m.Reactions[1].Origin; o.Line != textLine(tinyHeader+tinyReactions, `equation = "H + O2 (+M)`)-1 {
 		t.Errorf("reaction 2 origin %+v", o)
 	}
 }
 
 func close(a, b, rel float64) bool { return math.Abs(a-b) <= rel*math.Abs(b) }
 
-// lineOf is the 1-based line of the first line containing s.
-func lineOf(text, s string) int {
+// textLine is the 1-based line of the first line containing s.
+func textLine(text, s string) int {
 	for i, l := range strings.Split(text, "\n") {
 		if strings.Contains(l, s) {
 			return i + 1
@@ -289,9 +289,9 @@ func TestBrokenInput(t *testing.T) {
 			}
 			wantLine := 0
 			if at, before := strings.CutPrefix(c.atLine, "^"); before {
-				wantLine = lineOf(c.text, at) - 1
+				wantLine = textLine(c.text, at) - 1
 			} else {
-				wantLine = lineOf(c.text, at)
+				wantLine = textLine(c.text, at)
 			}
 			// The problem with the message, at the line if there is one
 			// there (a repeated equation is reported at both steps).
