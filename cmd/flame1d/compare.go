@@ -1,0 +1,163 @@
+package main
+
+import (
+	"encoding/csv"
+	"fmt"
+	"io"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+
+	"github.com/spf13/cobra"
+
+	"flame1d/casefile"
+	"flame1d/output"
+	"flame1d/study"
+)
+
+func newCompareCmd() *cobra.Command {
+	var (
+		outDir string
+		fuels  string
+		phis   string
+		quiet  bool
+	)
+	cmd := &cobra.Command{
+		Use:   "compare CASE.toml",
+		Short: "Compare the flames of two or more fuels at the same conditions",
+		Long: `Solve every fuel of a case file's [compare] table (or --fuels) over a list of
+equivalence ratios, at the case's unburned temperature and pressure, and write:
+  compare.csv                  S_L of each fuel, its ratio to the first fuel,
+                               adiabatic and burned T, thickness, zone positions
+  flame-speed.svg/.png         S_L against equivalence ratio for all fuels
+  profiles-thermal.svg/.png    T and heat release at the profile condition,
+                               aligned at each flame's heat-release peak
+  profiles-species.svg/.png    fuel and main pool species, aligned likewise
+  <fuel>/                      profile.csv, zones.csv, summary of each fuel
+                               at the profile condition
+
+The first fuel is the reference (typically the surrogate used in CFD).
+Failed points are reported in the table with their reason, never as numbers.
+
+` + output.SafetyNote,
+		Example: `  flame1d compare examples/kerosene-compare.toml -o out/compare
+  flame1d compare case.toml --fuels surrogate,candidate --phi 0.8,1.0,1.2`,
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			c, err := casefile.ReadFile(args[0])
+			if err != nil {
+				return err
+			}
+			var names []string
+			var phiList []float64
+			profilePhi := c.EquivalenceRatio
+			if c.Compare != nil {
+				names, phiList, profilePhi = c.Compare.Fuels, c.Compare.EquivalenceRatios, c.Compare.ProfilePhi
+			}
+			if fuels != "" {
+				names = strings.Split(fuels, ",")
+			}
+			if phis != "" {
+				phiList = nil
+				for _, f := range strings.Split(phis, ",") {
+					v, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
+					if err != nil || !(v > 0) {
+						return fmt.Errorf("--phi: %q is not a positive number", f)
+					}
+					phiList = append(phiList, v)
+				}
+			}
+			if len(phiList) == 0 {
+				phiList = []float64{c.EquivalenceRatio}
+			}
+			if outDir == "" {
+				outDir = strings.TrimSuffix(filepath.Base(args[0]), filepath.Ext(args[0])) + "-compare"
+			}
+			var progress io.Writer = cmd.ErrOrStderr()
+			if quiet {
+				progress = nil
+			}
+			cmp, err := study.Compare(c, names, phiList, progress)
+			if err != nil {
+				return err
+			}
+			rows := cmp.Table()
+			comments := []string{"flame1d fuel comparison: " + c.Title, output.SafetyNote}
+			err = output.WriteFileAtomic(filepath.Join(outDir, "compare.csv"), func(w io.Writer) error {
+				for _, cm := range comments {
+					fmt.Fprintf(w, "# %s\n", cm)
+				}
+				cw := csv.NewWriter(w)
+				if err := cw.WriteAll(rows); err != nil {
+					return err
+				}
+				return cw.Error()
+			})
+			if err != nil {
+				return err
+			}
+			if err := cmp.WritePlots(outDir, profilePhi); err != nil {
+				return err
+			}
+			ip := 0
+			for i, phi := range cmp.Phis {
+				if abs(phi-profilePhi) < abs(cmp.Phis[ip]-profilePhi) {
+					ip = i
+				}
+			}
+			for _, name := range cmp.Fuels {
+				if r := cmp.Results[name][ip]; r != nil {
+					if err := study.WriteFlame(filepath.Join(outDir, name), r); err != nil {
+						return err
+					}
+				}
+			}
+			printCompare(cmd.OutOrStdout(), cmp)
+			fmt.Fprintf(cmd.OutOrStdout(), "\nresults in %s\n%s\n", outDir, output.SafetyNote)
+			return nil
+		},
+	}
+	cmd.Flags().StringVarP(&outDir, "output", "o", "", "output folder (default <case>-compare)")
+	cmd.Flags().StringVar(&fuels, "fuels", "", "comma-separated fuel names (default: the [compare] table)")
+	cmd.Flags().StringVar(&phis, "phi", "", "comma-separated equivalence ratios (default: the [compare] table)")
+	cmd.Flags().BoolVarP(&quiet, "quiet", "q", false, "no progress messages on stderr")
+	return cmd
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+func printCompare(w io.Writer, cmp *study.Comparison) {
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "fuel\tphi\tS_L [m/s]\tratio\tT_ad [K]\tpyrolysis end [mm]\tHRR peak [mm]\tstatus\n")
+	for _, name := range cmp.Fuels {
+		for i, phi := range cmp.Phis {
+			r := cmp.Results[name][i]
+			if r == nil {
+				fmt.Fprintf(tw, "%s\t%g\t-\t-\t-\t-\t-\tfailed\n", name, phi)
+				continue
+			}
+			s := r.Summary
+			ratio := "-"
+			if ref := cmp.Results[cmp.Fuels[0]][i]; ref != nil {
+				ratio = fmt.Sprintf("%.3f", s.FlameSpeed/ref.Summary.FlameSpeed)
+			}
+			py := "-"
+			if len(s.Zones.Pyrolysis) > 0 {
+				end := s.Zones.Pyrolysis[0].EndX
+				for _, p := range s.Zones.Pyrolysis {
+					end = max(end, p.EndX)
+				}
+				py = fmt.Sprintf("%.3f", 1e3*end)
+			}
+			fmt.Fprintf(tw, "%s\t%g\t%.4f\t%s\t%.0f\t%s\t%.3f\tconverged\n", name, phi, s.FlameSpeed, ratio,
+				s.AdiabaticTemperature, py, 1e3*s.Zones.Oxidation.PeakX)
+		}
+	}
+	tw.Flush()
+}
