@@ -197,6 +197,9 @@ func rel(fit, exact float64) float64    { return math.Abs(fit-exact) / math.Abs(
 func (f *fitted) fitAll() error {
 	K := len(f.species)
 	sc := f.scale
+	if err := f.checkCoverage(); err != nil {
+		return err
+	}
 	one := func(deg int, what string, fn func(u float64) float64, errFn func(fit, exact float64) float64) ([]float64, error) {
 		c, err := fitPolynomial(deg, fn)
 		if err != nil {
@@ -259,6 +262,32 @@ func (f *fitted) fitAll() error {
 			}
 			f.tdCoef = append(f.tdCoef, c...)
 		}
+	}
+	return nil
+}
+
+// checkCoverage fails when a species or pair needs collision integrals
+// outside the table over the fit range.
+func (f *fitted) checkCoverage() error {
+	var bad []string
+	check := func(what string, eps, delta float64) {
+		if !tableCovers(f.scale.tMin/eps, delta) || !tableCovers(f.scale.tMax/eps, delta) {
+			bad = append(bad, fmt.Sprintf("%s (T* %.3g-%.3g, delta* %.3g)", what, f.scale.tMin/eps, f.scale.tMax/eps, delta))
+		}
+	}
+	for j := range f.species {
+		check(f.species[j].name, f.species[j].eps, f.species[j].delta)
+		for k := j + 1; k < len(f.species); k++ {
+			p := combine(&f.species[j], &f.species[k])
+			check(f.species[j].name+"-"+f.species[k].name, p.eps, p.delta)
+		}
+	}
+	if len(bad) > 0 {
+		if len(bad) > 10 {
+			bad = append(bad[:10], fmt.Sprintf("and %d more", len(bad)-10))
+		}
+		return fmt.Errorf("transport: fit range %g-%g K needs collision integrals outside 0.1 <= T* <= 580, delta* <= 2.5 for %s",
+			f.scale.tMin, f.scale.tMax, strings.Join(bad, ", "))
 	}
 	return nil
 }
@@ -448,8 +477,9 @@ func (t *Model) mathurTondonSaxena() float64 {
 //
 //	D_km = (1 - Y_k) / sum_{j != k} x_j/D_jk
 //
-// (Hirschfelder, Curtiss & Bird 1954, eq. 8.2-? in the form of Bird,
-// Stewart & Lightfoot, Transport Phenomena (2002), eq. 17.9-?), with
+// (the approximation of Hirschfelder & Curtiss, J. Chem. Phys. 17 (1949)
+// 550, in mass-fraction form; e.g. Kee, Coltrin & Glarborg, Chemically
+// Reacting Flow, Wiley 2003, ch. 12), with
 // 1 - Y_k = sum_{j != k} x_j W_j / sum_j x_j W_j evaluated from the floored
 // x. For a pure species k (every other X_j = 0) the floor gives the finite
 // limit D_km = (sum_{j != k} W_j / W_k)/(sum_{j != k} 1/D_jk).

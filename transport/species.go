@@ -86,8 +86,8 @@ func (s *molecule) viscosity(T float64) float64 {
 	return 5.0 / 16 * math.Sqrt(math.Pi*s.mass*boltzmann*T) / (math.Pi * s.sigma * s.sigma * c.O22)
 }
 
-// binaryDiffusion returns the Chapman-Enskog first-approximation binary
-// diffusion coefficient D_jk P, in Pa m^2/s (Hirschfelder, Curtiss & Bird
+// diffusionTimesPressure returns the Chapman-Enskog first-approximation
+// binary diffusion coefficient times pressure, D_jk P, in Pa m^2/s (Hirschfelder, Curtiss & Bird
 // 1954, eq. 8.2-44):
 //
 //	D_jk = (3/16) sqrt(2 pi k_B^3 T^3/m_jk) / (P pi sigma_jk^2 Omega(1,1)*(T*_jk, delta*_jk))
