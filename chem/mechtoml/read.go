@@ -401,26 +401,19 @@ func (rd *reader) number(v any, path []string, label string, k kind) (float64, b
 		if hasUnit && unit != "K" {
 			bad("temperatures are in K, not %q", unit)
 		}
-	case energy:
-		f, known := rd.units.energyJ, rd.declared.energy
-		if hasUnit {
-			f, known = energyUnits[unit]
-			if !known {
-				bad("unknown energy unit %q (use %s)", unit, unitList(energyUnits))
-			}
-		} else if !known {
-			bad("no energy unit: declare energy in [units] or write the unit with the value, e.g. \"%s cal/mol\"", formatFloat(q))
+	case energy, pressure:
+		// A unit with the value, else the [units] table's.
+		name, allowed, f, known := "energy", energyUnits, rd.units.energyJ, rd.declared.energy
+		if k == pressure {
+			name, allowed, f, known = "pressure", pressureUnits, rd.units.pressPa, rd.declared.pressure
 		}
-		si = scaleBy(q, f)
-	case pressure:
-		f, known := rd.units.pressPa, rd.declared.pressure
 		if hasUnit {
-			f, known = pressureUnits[unit]
-			if !known {
-				bad("unknown pressure unit %q (use %s)", unit, unitList(pressureUnits))
+			if f, known = allowed[unit]; !known {
+				bad("unknown %s unit %q (use %s)", name, unit, unitList(allowed))
 			}
 		} else if !known {
-			bad("no pressure unit: declare pressure in [units] or write the unit with the value, e.g. \"%s atm\"", formatFloat(q))
+			bad("no %s unit: declare %s in [units] or write the unit with the value, e.g. \"%s %s\"",
+				name, name, formatFloat(q), map[kind]string{energy: "cal/mol", pressure: "atm"}[k])
 		}
 		si = scaleBy(q, f)
 	case diameter, dipole, polarizability:

@@ -1,6 +1,7 @@
 package mechtoml
 
 import (
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -312,5 +313,44 @@ func TestBrokenInput(t *testing.T) {
 				t.Errorf("error at %s:%d, want hand.toml:%d (%q): %s", found.Pos.File, found.Pos.Line, wantLine, c.atLine, found.Message)
 			}
 		})
+	}
+}
+
+// TestAllProblemsInOrder: one read reports every defect it finds, in file
+// order, not just the first.
+func TestAllProblemsInOrder(t *testing.T) {
+	text := strings.Replace(tinyHeader+tinyReactions, `troe = {a = 0.5`, `trow = {a = 0.5`, 1)
+	text = strings.Replace(text, `name = "tiny"`, "name = \"tiny\"\ncolour = \"blue\"", 1)
+	text = strings.Replace(text, `equation = "2O+M<=>O2+M"`, `equation = "2O+M<=>O3+M"`, 1)
+	_, problems, err := readString(t, text)
+	if err == nil {
+		t.Fatal("read succeeded")
+	}
+	want := []string{`unknown key "colour"`, `unknown key "trow"`, `unknown species "O3"`}
+	if len(problems) != len(want) {
+		t.Fatalf("%d problems, want %d: %v", len(problems), len(want), problems)
+	}
+	for i, w := range want {
+		if !strings.Contains(problems[i].Message, w) {
+			t.Errorf("problem %d = %s, want %q", i+1, problems[i], w)
+		}
+		if i > 0 && problems[i].Pos.Line <= problems[i-1].Pos.Line {
+			t.Errorf("problems not in file order: %v", problems)
+		}
+	}
+}
+
+type failingReader struct{}
+
+func (failingReader) Read([]byte) (int, error) { return 0, errors.New("disk on fire") }
+
+// TestReadFailure: an I/O error is returned as such, wrapped with the file.
+func TestReadFailure(t *testing.T) {
+	m, problems, err := Read(failingReader{}, "x.toml")
+	if m != nil || problems != nil || err == nil || !strings.Contains(err.Error(), "x.toml") || !strings.Contains(err.Error(), "disk on fire") {
+		t.Errorf("Read = %v, %v, %v", m, problems, err)
+	}
+	if _, _, err := ReadFile("/nonexistent/mech.toml"); err == nil {
+		t.Error("ReadFile of a missing file succeeded")
 	}
 }

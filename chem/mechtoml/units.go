@@ -10,9 +10,9 @@ import (
 	"flame1d/thermo"
 )
 
-// Avogadro is the Avogadro constant N_A in 1/mol (CODATA 2018, exact by the
+// avogadro is the Avogadro constant N_A in 1/mol (CODATA 2018, exact by the
 // 2019 SI definition).
-const Avogadro = 6.02214076e23
+const avogadro = 6.02214076e23
 
 // Unit sizes used at this edge. The thermochemical calorie is exactly
 // 4.184 J (NIST SP 811, 2008, appendix B.8); 1 atm is exactly 101325 Pa and
@@ -93,7 +93,7 @@ func (u rateUnit) factor() float64 {
 		base = cm3
 	}
 	if u.molecule {
-		base *= Avogadro
+		base *= avogadro
 	}
 	if base == 1 {
 		return 1
