@@ -412,7 +412,7 @@ func (s Spec) equilibriumPool(set *thermo.SpeciesSet, f Formula, rep *PoolReport
 	if err != nil {
 		return nil, err
 	}
-	rep.Method = fmt.Sprintf("constrained equilibrium at %g K, %g Pa over %d candidates (%s)", T, P, len(keep), strings.Join(names, " "))
+	rep.Method = fmt.Sprintf("constrained equilibrium at %g K, %.6g bar over %d candidates (%s)", T, P/1e5, len(keep), strings.Join(names, " "))
 	if len(c.Exclude) > 0 {
 		rep.Method += "; walled off: " + strings.Join(c.Exclude, " ")
 	}

@@ -242,7 +242,8 @@ type StudyResult struct {
 // StepResult is one step's constrained equilibrium.
 type StepResult struct {
 	Label string
-	// Walled lists every species walled off up to this step.
+	// Walled lists every species walled off up to this step that could
+	// hold the fuel's atoms (species with other elements never take part).
 	Walled []string
 	// Moles per mole of fuel, gas mole fractions, and the share of the
 	// fuel's carbon and hydrogen held by each species (over Species).
@@ -319,7 +320,7 @@ func RunStudy(set *thermo.SpeciesSet, f Formula, T, P float64, candidates []stri
 			Moles: cr.Equilibrium.Moles, MoleFractions: cr.Equilibrium.MoleFractions,
 			CarbonShare: make([]float64, n), HydrogenShare: make([]float64, n)}
 		for k := range set.Species {
-			if walls[k] {
+			if c, h, o, other := speciesAtoms(set.Species[k].Composition); walls[k] && !other && (o == 0 || f.O > 0) && c+h > 0 {
 				sr.Walled = append(sr.Walled, set.Species[k].Name)
 			}
 			sr.CarbonShare[k] = sr.Moles[k] * atomCount(set.Species[k].Composition, "C") / f.C

@@ -1,0 +1,103 @@
+package output
+
+import (
+	"bytes"
+	"image/png"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func TestStackedBars(t *testing.T) {
+	dir := t.TempDir()
+	cats := []string{"all", "no graphite", "no aromatics"}
+	series := []Series{
+		{Name: "graphite", Y: []float64{0.94, 0, 0}},
+		{Name: "pyrene", Y: []float64{0, 0.70, 0}},
+		{Name: "methane", Y: []float64{0.06, 0.30, 1}},
+	}
+	c := Chart{Title: "carbon share", YLabel: "share of fuel carbon [-]", Width: 400, Height: 300}
+	svg := filepath.Join(dir, "bars.svg")
+	pngPath := filepath.Join(dir, "bars.png")
+	for _, p := range []string{svg, pngPath} {
+		if err := StackedBars(p, c, cats, series); err != nil {
+			t.Fatal(err)
+		}
+	}
+	b, err := os.ReadFile(svg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"<svg", "graphite", "pyrene", "methane", "no aromatics", "carbon share"} {
+		if !bytes.Contains(b, []byte(want)) {
+			t.Errorf("SVG lacks %q", want)
+		}
+	}
+	f, err := os.Open(pngPath)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	img, err := png.Decode(f)
+	if err != nil {
+		t.Fatalf("PNG does not decode: %v", err)
+	}
+	// 400 × 300 points at the PNG default of 96 dpi: 533 × 400 pixels.
+	if r := img.Bounds(); r.Dx() != 533 || r.Dy() != 400 {
+		t.Errorf("PNG is %d × %d pixels, want 533 × 400", r.Dx(), r.Dy())
+	}
+	// No temporary files are left behind.
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 2 {
+		t.Errorf("folder holds %d files, want the 2 charts", len(entries))
+	}
+}
+
+func TestChartsRefuseBadData(t *testing.T) {
+	dir := t.TempDir()
+	for _, c := range []struct {
+		name string
+		run  func(path string) error
+		want string
+	}{
+		{"short series", func(p string) error {
+			return StackedBars(p, Chart{}, []string{"a", "b"}, []Series{{Name: "x", Y: []float64{1}}})
+		}, "has 1 values for 2 categories"},
+		{"NaN bar", func(p string) error {
+			return StackedBars(p, Chart{}, []string{"a"}, []Series{{Name: "x", Y: []float64{nan()}}})
+		}, "not a finite non-negative number"},
+		{"NaN line", func(p string) error {
+			return Lines(p, Chart{}, []Series{{Name: "x", X: []float64{0, 1}, Y: []float64{0, nan()}}})
+		}, "not finite"},
+		{"unknown format", func(p string) error {
+			return Lines(p+".xyz", Chart{}, []Series{{Name: "x", X: []float64{0, 1}, Y: []float64{0, 1}}})
+		}, "chart"},
+	} {
+		path := filepath.Join(dir, "c.svg")
+		err := c.run(path)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: err = %v, want %q", c.name, err, c.want)
+		}
+		if _, statErr := os.Stat(path); statErr == nil {
+			t.Errorf("%s: a refused chart left a file", c.name)
+		}
+	}
+}
+
+func TestLines(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "l.svg")
+	err := Lines(path, Chart{Title: "T", XLabel: "x [m]", YLabel: "T [K]"}, []Series{
+		{Name: "flame A", X: []float64{0, 1, 2}, Y: []float64{300, 1500, 2100}},
+		{Name: "flame B", X: []float64{0, 1, 2}, Y: []float64{300, 1200, 1900}},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := os.ReadFile(path)
+	if !bytes.Contains(b, []byte("flame B")) || !bytes.Contains(b, []byte("x [m]")) {
+		t.Error("SVG lacks the legend or the axis label")
+	}
+}
+
+func nan() float64 { var z float64; return z / z }
