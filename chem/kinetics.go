@@ -203,9 +203,9 @@ type kineticsWork struct {
 	lnT, invT float64
 	gRT, hRT  []float64
 	expG      []float64 // exp(-g/RT) per species
-	Kc        []float64
-	invKc     []float64 // 1/Kc, clamped to [e^-maxExpArg, e^maxExpArg]
-	dlnKcdT   []float64
+	expGinv   []float64 // exp(+g/RT)
+	invKc     []float64 // 1/Kc of reversible steps without explicit reverse
+	dlnKcdT   []float64 // d ln Kc/dT, same steps
 	foT       []float64 // per falloff, foStride entries: see falloffTemperature
 	lvlK      []float64 // per pressure level: summed k, dk/dT, ln k (k > 0 only)
 	chebA     []float64 // per Chebyshev: a_j(T), da_j/dT (two blocks)
@@ -301,8 +301,8 @@ func (km *kineticsModel) newWork() kineticsWork {
 	f := func(n int) []float64 { return make([]float64, n) }
 	return kineticsWork{
 		lastT: math.NaN(),
-		gRT:   f(K), hRT: f(K), expG: f(K),
-		Kc: f(n), invKc: f(n), dlnKcdT: f(n),
+		gRT:   f(K), hRT: f(K), expG: f(K), expGinv: f(K),
+		invKc: f(n), dlnKcdT: f(n),
 		foT:       f(foStride * len(km.falloffs)),
 		lvlK:      f(3 * len(km.lvlLnP)),
 		chebA:     f(2 * km.chebCache),
@@ -385,7 +385,15 @@ func (k *Kinetics) RateConstants(T float64, C, kf, kr []float64) {
 func (k *Kinetics) EquilibriumConstants(T float64, Kc []float64) {
 	checkLen("Kc", len(Kc), len(k.m.rx))
 	k.setTemperature(T)
-	copy(Kc, k.w.Kc)
+	lnStd := lnStdOverR - k.w.lnT
+	for i := range k.m.rx {
+		r := &k.m.rx[i]
+		sg := 0.0
+		for _, s := range k.m.nus[r.nuBeg:r.nuEnd] {
+			sg += s.nu * k.w.gRT[s.sp]
+		}
+		Kc[i] = math.Exp(-sg + r.dnu*lnStd)
+	}
 }
 
 // HeatReleaseRate returns the volumetric heat release rate
@@ -444,7 +452,7 @@ func (k *Kinetics) update(T float64, C []float64) {
 }
 
 // setTemperature fills the per-T cache unless it already holds T: species
-// g/RT and h/RT, Kc and its T-derivative for every reaction, complete rate
+// g/RT and h/RT, 1/Kc and d ln Kc/dT where the reverse needs them, complete rate
 // constants of the Elementary and ThreeBody forms and of explicit reverse
 // rates, and the T-dependent parts of the other forms.
 func (k *Kinetics) setTemperature(T float64) {
@@ -460,14 +468,16 @@ func (k *Kinetics) setTemperature(T float64) {
 		h := p.HRT(T)
 		g := h - p.SR(T) // = p.GRT(T), without evaluating h twice
 		w.hRT[i], w.gRT[i] = h, g
-		w.expG[i] = math.Exp(-g)
+		e := math.Exp(-g)
+		w.expG[i], w.expGinv[i] = e, 1/e
 	}
 	lnStd := lnStdOverR - lnT
-	std := thermo.StandardPressure / (thermo.GasConstant * T)
+	rtOverStd := thermo.GasConstant * T / thermo.StandardPressure
 	for i := range m.rx {
 		r := &m.rx[i]
-		w.Kc[i], w.dlnKcdT[i] = k.equilibriumConstant(r, lnStd, std, invT)
-		w.invKc[i] = clampedInverse(w.Kc[i])
+		if r.reverse == reverseFromKc {
+			w.invKc[i], w.dlnKcdT[i] = k.inverseKc(r, lnStd, rtOverStd, invT)
+		}
 		switch r.form {
 		case Elementary, ThreeBody:
 			kf, dkf := r.rate.eval(lnT, invT)
@@ -506,57 +516,43 @@ func (k *Kinetics) setTemperature(T float64) {
 	w.lastT = T
 }
 
-// equilibriumConstant returns Kc = exp(-sum nu g/RT) (P°/RT)^Δν and
-// d ln Kc/dT = (sum nu h/RT - Δν)/T. With integer coefficients Kc is the
-// product of the cached species factors exp(-g/RT) and of P°/RT, when no
-// partial product can leave the float range (sum |nu g/RT| + |Δν ln(P°/RT)|
-// below maxExpArg); otherwise one exponential of ln Kc.
-func (k *Kinetics) equilibriumConstant(r *reactionData, lnStd, std, invT float64) (Kc, dlnKcdT float64) {
+// inverseKc returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν, limited to
+// [e^-maxExpArg, e^maxExpArg], and d ln Kc/dT = (sum nu h/RT - Δν)/T. With
+// integer coefficients 1/Kc is a product of the cached species factors
+// exp(±g/RT) and of RT/P° (multiplications only), used when no partial
+// product can leave the float range (sum |nu g/RT| + |Δν ln(P°/RT)| below
+// maxExpArg); otherwise one exponential.
+func (k *Kinetics) inverseKc(r *reactionData, lnStd, rtOverStd, invT float64) (invKc, dlnKcdT float64) {
 	m, w := k.m, &k.w
+	nus := m.nus[r.nuBeg:r.nuEnd]
 	sg, sh, sAbs := 0.0, 0.0, 0.0
-	for e := r.nuBeg; e < r.nuEnd; e++ {
-		sp, nu := m.nus[e].sp, m.nus[e].nu
-		sg += nu * w.gRT[sp]
-		sh += nu * w.hRT[sp]
-		sAbs += math.Abs(nu * w.gRT[sp])
+	for _, s := range nus {
+		g := s.nu * w.gRT[s.sp]
+		sg += g
+		sh += s.nu * w.hRT[s.sp]
+		sAbs += math.Abs(g)
 	}
 	dlnKcdT = (sh - r.dnu) * invT
 	if !r.intNu || sAbs+math.Abs(r.dnu*lnStd) >= maxExpArg {
-		return math.Exp(-sg + r.dnu*lnStd), dlnKcdT
+		return math.Exp(math.Max(-maxExpArg, math.Min(maxExpArg, sg-r.dnu*lnStd))), dlnKcdT
 	}
-	Kc = 1
+	invKc = 1
 	for n := r.dnuInt; n > 0; n-- {
-		Kc *= std
+		invKc *= rtOverStd
 	}
 	for n := r.dnuInt; n < 0; n++ {
-		Kc /= std
+		invKc *= 1 / rtOverStd
 	}
-	for _, s := range m.nus[r.nuBeg:r.nuEnd] {
-		v := w.expG[s.sp]
+	for _, s := range nus {
+		up, down := w.expGinv[s.sp], w.expG[s.sp]
 		for n := s.n; n > 0; n-- {
-			Kc *= v
+			invKc *= up
 		}
 		for n := s.n; n < 0; n++ {
-			Kc /= v
+			invKc *= down
 		}
 	}
-	return Kc, dlnKcdT
-}
-
-var (
-	minInvKc = math.Exp(-maxExpArg)
-	maxInvKc = math.Exp(maxExpArg)
-)
-
-// clampedInverse returns 1/Kc limited to [e^-maxExpArg, e^maxExpArg].
-func clampedInverse(Kc float64) float64 {
-	if !(Kc > minInvKc) { // also Kc = 0
-		return maxInvKc
-	}
-	if Kc > maxInvKc {
-		return minInvKc
-	}
-	return 1 / Kc
+	return invKc, dlnKcdT
 }
 
 // powFactor returns C^a for a non-unit exponent a, with the guards of the
