@@ -41,7 +41,7 @@ func TestFitError(t *testing.T) {
 	if e := tr.MaxFitError(); e >= 0.005 || e <= 0 {
 		t.Fatalf("MaxFitError = %.3g, want 0 < e < 0.005", e)
 	} else {
-		t.Logf("MaxFitError = %.3g", e)
+		t.Logf("MaxFitError = %.3g (%s)", e, tr.WorstFit())
 	}
 	K := len(m.Species)
 	X := make([]float64, K)
