@@ -39,7 +39,7 @@ var alkaneCritical = []struct {
 //	epsilon/(k Tc)      = 0.7915 + 0.1693 omega
 //
 // Nonlinear, no dipole, no polarizability, Z_rot = 1. For n-heptane this
-// gives 459.6 K and 6.31 Å, against 459.98 K and 6.253 Å in the transport
+// gives 459.6 K and 6.31 Å, against 459.6 K and 6.253 Å in the transport
 // file of Lu, Law, Yoo & Chen (2009). Fuels rich in aromatics or
 // cycloalkanes are less well served; give [transport] yourself then.
 func EstimateTransport(W float64) (chem.TransportParams, error) {
