@@ -1,0 +1,472 @@
+package sweep
+
+import (
+	"container/heap"
+	"context"
+	"errors"
+	"fmt"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"flame1d/casefile"
+	"flame1d/flame"
+	"flame1d/output"
+	"flame1d/study"
+)
+
+// PointSolver solves the flame at one condition. start, when non-nil, is
+// the converged state of a neighbour to continue from; its Mechanism is nil
+// (it may come from disk) and the solver binds its own. cold reports whether
+// a cold start was tried: on success, whether the result came from one.
+//
+// A PointSolver is used by one goroutine at a time; the sweep makes one per
+// worker.
+type PointSolver interface {
+	Solve(c study.Condition, start *flame.Solution) (res *study.Result, cold bool, err error)
+}
+
+// Options control a sweep run.
+type Options struct {
+	// Jobs is the number of points solved at the same time; 0 means
+	// runtime.NumCPU(). Only independent points run together: the heads of
+	// different chains and the two branches of a chain.
+	Jobs int
+	// Shard selects one slice of the sweep (zero value: all of it).
+	Shard Shard
+	// ColdStarts solves every point from a cold start, without
+	// continuation: slower, for checking continuation.
+	ColdStarts bool
+	// RetryFailed solves again the points a previous run committed as
+	// failed; by default they are kept as they are.
+	RetryFailed bool
+	// Progress, when non-nil, is called after each point is committed,
+	// from one goroutine at a time.
+	Progress func(Progress)
+	// NewSolver makes one worker's solver; nil makes a study.Study of the
+	// case per worker.
+	NewSolver func() (PointSolver, error)
+}
+
+// Progress reports one committed point.
+type Progress struct {
+	Done, Total int // points finished and to be solved in this run
+	Record      *Record
+}
+
+// Summary is the outcome of a run.
+type Summary struct {
+	Dir    string
+	Points int // in this shard
+	// Solved, Failed and Pending count the shard's points after the run.
+	Solved, Failed, Pending int
+	// Reused counts points committed by an earlier run and not solved again.
+	Reused int
+	// Attempted counts the points this run tried to solve.
+	Attempted int
+	Failures  []*Record
+	WallTime  time.Duration
+}
+
+// ErrInterrupted is returned when the context is cancelled before the
+// sweep is complete; everything committed so far is kept.
+var ErrInterrupted = errors.New("sweep interrupted")
+
+// maxNeighbourStarts is how many solved ancestors a point tries to continue
+// from before a cold start.
+const maxNeighbourStarts = 2
+
+// Run solves the sweep of a case (or one shard of it) into dir. Points
+// already committed in dir by an earlier run of the same sweep are kept;
+// a different sweep in dir is an error that names the difference.
+func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summary, error) {
+	began := time.Now()
+	mech, err := study.LoadMechanism(c)
+	if err != nil {
+		return nil, err
+	}
+	def, err := DefinitionOf(c, mech, opt.ColdStarts)
+	if err != nil {
+		return nil, err
+	}
+	plan, err := NewPlan(def)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", c.File, err)
+	}
+	shard := opt.Shard.normal()
+	points, err := plan.ShardPoints(shard)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", c.File, err)
+	}
+	m := &Manifest{Format: manifestFormat, Title: c.Title, Definition: def, Shard: shard, Note: output.SafetyNote}
+	if err := claimFolder(dir, m); err != nil {
+		return nil, err
+	}
+	recs, err := readRecords(dir, plan, points)
+	if err != nil {
+		return nil, err
+	}
+	if opt.RetryFailed {
+		for i, r := range recs {
+			if r.Status == Failed {
+				delete(recs, i)
+			}
+		}
+	}
+	r := &runner{dir: dir, title: c.Title, plan: plan, points: points, recs: recs, opt: opt}
+	reused := len(recs)
+	if r.opt.NewSolver == nil {
+		r.opt.NewSolver = func() (PointSolver, error) { return newStudySolver(c, r.threads) }
+	}
+	if err := r.writeResults(); err != nil {
+		return nil, err
+	}
+	attempted, runErr := r.schedule(ctx)
+	plotErr := writePlots(dir, c.Title, plan, points, r.recs)
+	s := &Summary{Dir: dir, Points: len(points), Reused: reused, Attempted: attempted, WallTime: time.Since(began)}
+	for _, i := range points {
+		switch rec := r.recs[i]; {
+		case rec == nil:
+			s.Pending++
+		case rec.Status == Solved:
+			s.Solved++
+		default:
+			s.Failed++
+			s.Failures = append(s.Failures, rec)
+		}
+	}
+	if runErr != nil {
+		return s, runErr
+	}
+	if plotErr != nil {
+		return s, plotErr
+	}
+	if s.Pending > 0 {
+		return s, fmt.Errorf("%w: %d of %d points committed in %s; run the same command again to solve the other %d",
+			ErrInterrupted, len(points)-s.Pending, len(points), dir, s.Pending)
+	}
+	return s, nil
+}
+
+type runner struct {
+	dir    string
+	title  string
+	plan   *Plan
+	points []int
+	recs   map[int]*Record // committed points; written by the coordinating goroutine only
+	opt    Options
+	active atomic.Int32 // solves in progress
+}
+
+// threads is the number of residual-evaluation goroutines for the next
+// solve: the cores shared among the solves in progress. The residual is
+// evaluated point by point, so results do not depend on it.
+func (r *runner) threads() int {
+	n := runtime.NumCPU() / max(1, int(r.active.Load()))
+	return max(1, n)
+}
+
+func (r *runner) writeResults() error {
+	t := &Table{Comments: resultsComments(r.title, r.plan.Definition)}
+	for _, i := range r.points {
+		t.Rows = append(t.Rows, rowOf(r.plan.Points[i], r.recs[i]))
+	}
+	return output.WriteFileAtomic(filepath.Join(r.dir, ResultsName), t.WriteCSV)
+}
+
+type task struct {
+	point  int
+	starts []string // ids of solved neighbours to continue from, nearest first
+}
+
+type outcome struct {
+	point int
+	rec   *Record
+	err   error // failure to commit: stops the sweep
+}
+
+// schedule solves the pending points on opt.Jobs workers. A point is ready
+// when its parent is committed (solved or failed); the ready point with the
+// most work waiting below it goes first. It returns how many points it
+// attempted.
+func (r *runner) schedule(ctx context.Context) (int, error) {
+	plan := r.plan
+	inRun := make(map[int]bool)
+	for _, i := range r.points {
+		if r.recs[i] == nil {
+			inRun[i] = true
+		}
+	}
+	total := len(inRun)
+	if total == 0 {
+		return 0, nil
+	}
+	children := make([][]int, len(plan.Points))
+	for _, i := range r.points {
+		if p := plan.Points[i].Parent; p >= 0 {
+			children[p] = append(children[p], i)
+		}
+	}
+	q := &readyQueue{depth: plan.depths()}
+	isReady := func(i int) bool {
+		p := plan.Points[i].Parent
+		return r.opt.ColdStarts || p < 0 || r.recs[p] != nil
+	}
+	for _, i := range r.points {
+		if inRun[i] && isReady(i) {
+			heap.Push(q, i)
+		}
+	}
+	jobs := r.opt.Jobs
+	if jobs <= 0 {
+		jobs = runtime.NumCPU()
+	}
+	jobs = min(jobs, total)
+	tasks := make(chan task)
+	done := make(chan outcome)
+	var wg sync.WaitGroup
+	for w := 0; w < jobs; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			r.work(tasks, done)
+		}()
+	}
+	var fatal error
+	cancelled := false
+	ctxDone := ctx.Done()
+	running, finished, attempted := 0, 0, 0
+	for {
+		var send chan<- task
+		var next task
+		if fatal == nil && !cancelled && ctx.Err() == nil && q.Len() > 0 {
+			send = tasks
+			next = task{point: q.items[0], starts: r.startsFor(q.items[0])}
+		}
+		if send == nil && running == 0 {
+			break
+		}
+		select {
+		case send <- next:
+			heap.Pop(q)
+			running++
+			attempted++
+			r.active.Add(1)
+		case o := <-done:
+			running--
+			r.active.Add(-1)
+			if o.err != nil {
+				if fatal == nil {
+					fatal = o.err
+				}
+				continue
+			}
+			r.recs[o.point] = o.rec
+			finished++
+			if err := r.writeResults(); err != nil && fatal == nil {
+				fatal = err
+			}
+			for _, ch := range children[o.point] {
+				if inRun[ch] && !r.opt.ColdStarts {
+					heap.Push(q, ch)
+				}
+			}
+			if r.opt.Progress != nil {
+				r.opt.Progress(Progress{Done: finished, Total: total, Record: o.rec})
+			}
+		case <-ctxDone:
+			cancelled = true
+			ctxDone = nil
+		}
+	}
+	close(tasks)
+	wg.Wait()
+	return attempted, fatal
+}
+
+// startsFor lists the solved ancestors a point continues from, nearest
+// first. Ancestors are committed before their descendants are dispatched,
+// so the list depends only on the outcomes, never on timing.
+func (r *runner) startsFor(i int) []string {
+	if r.opt.ColdStarts {
+		return nil
+	}
+	var out []string
+	for _, a := range r.plan.Ancestors(i) {
+		if rec := r.recs[a]; rec != nil && rec.Status == Solved {
+			out = append(out, rec.ID)
+			if len(out) == maxNeighbourStarts {
+				break
+			}
+		}
+	}
+	return out
+}
+
+// work is one worker: it makes its own solver on first use and solves and
+// commits the points it is given.
+func (r *runner) work(tasks <-chan task, done chan<- outcome) {
+	var solver PointSolver
+	var solverErr error
+	for t := range tasks {
+		if solver == nil && solverErr == nil {
+			solver, solverErr = r.opt.NewSolver()
+		}
+		if solverErr != nil {
+			done <- outcome{point: t.point, err: solverErr}
+			continue
+		}
+		rec, err := r.solvePoint(solver, t)
+		done <- outcome{point: t.point, rec: rec, err: err}
+	}
+}
+
+// solvePoint tries each start in turn, then a cold start if none was tried,
+// and commits the point. Only a failure to write is returned as an error;
+// a flame that does not converge is a failed record.
+func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
+	pt := r.plan.Points[t.point]
+	began := time.Now()
+	rec := &Record{ID: pt.ID, EquivalenceRatio: pt.Condition.Phi, UnburnedTemperatureK: pt.Condition.T, PressurePa: pt.Condition.P}
+	var res *study.Result
+	triedCold := false
+	try := func(startID string, start *flame.Solution) {
+		t0 := time.Now()
+		out, cold, err := solver.Solve(pt.Condition, start)
+		triedCold = triedCold || cold
+		a := Attempt{Start: startID}
+		if err == nil {
+			if start != nil && cold {
+				a.Start = ColdStart
+			}
+			err = rec.fill(out)
+		}
+		a.WallTimeS = time.Since(t0).Seconds()
+		if err != nil {
+			a.Error = oneLine(err.Error())
+		} else {
+			res = out
+			rec.ContinuedFrom = a.Start
+		}
+		rec.Attempts = append(rec.Attempts, a)
+	}
+	for _, id := range t.starts {
+		start, _, err := readState(r.dir, id)
+		if err != nil {
+			rec.Attempts = append(rec.Attempts, Attempt{Start: id, Error: oneLine(err.Error())})
+			continue
+		}
+		if try(id, start); res != nil {
+			break
+		}
+	}
+	if res == nil && !triedCold {
+		try(ColdStart, nil)
+	}
+	rec.WallTimeS = time.Since(began).Seconds()
+	dir := pointDir(r.dir, pt.ID)
+	if res == nil {
+		rec.Status = Failed
+		rec.Reason = failureReason(rec.Attempts)
+	} else {
+		rec.Status = Solved
+		if err := study.WriteFlame(dir, res); err != nil {
+			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
+		}
+		if err := writeState(r.dir, pt.ID, res.Solution); err != nil {
+			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
+		}
+	}
+	if err := writeRecord(r.dir, rec); err != nil {
+		return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
+	}
+	return rec, nil
+}
+
+func failureReason(attempts []Attempt) string {
+	starts := make([]string, len(attempts))
+	for i, a := range attempts {
+		starts[i] = a.Start
+	}
+	last := attempts[len(attempts)-1]
+	return fmt.Sprintf("%d attempt(s) failed (starts: %s); last: %s", len(attempts), strings.Join(starts, ", "), last.Error)
+}
+
+// readyQueue orders ready points by the work waiting below them, then by
+// table order.
+type readyQueue struct {
+	items []int
+	depth []int
+}
+
+func (q *readyQueue) Len() int { return len(q.items) }
+func (q *readyQueue) Less(a, b int) bool {
+	ia, ib := q.items[a], q.items[b]
+	if q.depth[ia] != q.depth[ib] {
+		return q.depth[ia] > q.depth[ib]
+	}
+	return ia < ib
+}
+func (q *readyQueue) Swap(a, b int) { q.items[a], q.items[b] = q.items[b], q.items[a] }
+func (q *readyQueue) Push(x any)    { q.items = append(q.items, x.(int)) }
+func (q *readyQueue) Pop() any {
+	n := len(q.items)
+	x := q.items[n-1]
+	q.items = q.items[:n-1]
+	return x
+}
+
+// studySolver is the production PointSolver: a study.Study of the case.
+type studySolver struct {
+	st      *study.Study
+	threads func() int
+	sawCold bool
+}
+
+// coldStage is the solver's first stage on a cold start; continuation never
+// reports it, so seeing it during Study.Solve with a start means that the
+// continuation failed and Study.Solve fell back to a cold start.
+const coldStage = "fixed-temperature"
+
+func newStudySolver(c *casefile.Case, threads func() int) (*studySolver, error) {
+	st, err := study.New(c, nil)
+	if err != nil {
+		return nil, err
+	}
+	s := &studySolver{st: st, threads: threads}
+	st.Settings.Progress = func(p flame.Progress) {
+		if p.Stage == coldStage {
+			s.sawCold = true
+		}
+	}
+	return s, nil
+}
+
+func (s *studySolver) Solve(c study.Condition, start *flame.Solution) (*study.Result, bool, error) {
+	if s.threads != nil && s.st.Case.Solver.Workers == 0 {
+		s.st.Settings.Workers = s.threads()
+	}
+	if start != nil {
+		K := len(s.st.Mechanism.Species)
+		if len(start.U) != len(start.X)*(K+2) {
+			return nil, false, fmt.Errorf("the neighbour's saved state has %d unknowns on %d points, not %d species + 2 per point: it belongs to another mechanism",
+				len(start.U), len(start.X), K)
+		}
+		bound := *start
+		bound.Mechanism = s.st.Mechanism
+		start = &bound
+	}
+	s.sawCold = false
+	res, err := s.st.Solve(c, start)
+	if start == nil {
+		return res, true, err
+	}
+	if err != nil {
+		// Study.Solve falls back to a cold start before it gives up.
+		return nil, true, err
+	}
+	return res, s.sawCold, nil
+}
