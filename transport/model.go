@@ -69,14 +69,15 @@ type Model struct {
 	fit *fitted
 
 	// Work arrays, valid for temperature cachedT.
-	cachedT   float64
-	mu        []float64 // species viscosities, Pa s
-	invSqrtMu []float64 // 1/sqrt(mu_k)
-	lambda    []float64 // species conductivities, W/(m K)
-	q         []float64 // K*K, T^(3/2)/(D_jk P) (diagonal zero)
-	tdf       []float64 // len(light)*K, theta_kj of the light species
-	tPow      float64   // T^(3/2) at cachedT
-	x         []float64 // floored, renormalised mole fractions
+	cachedT float64
+	mu      []float64 // species viscosities, Pa s
+	alpha   []float64 // sqrt(mu_k)/W_k^(1/4)
+	beta    []float64 // W_k^(1/4)/sqrt(mu_k)
+	lambda  []float64 // species conductivities, W/(m K)
+	q       []float64 // K*K, T^(3/2)/(D_jk P) (diagonal zero)
+	tdf     []float64 // len(light)*K, theta_kj of the light species
+	tPow    float64   // T^(3/2) at cachedT
+	x       []float64 // floored, renormalised mole fractions
 }
 
 // fitted is the immutable part of a Model.
@@ -85,14 +86,16 @@ type fitted struct {
 	light   []int // indices of species with thermal diffusion ratios
 	scale   lnTScale
 
-	muCoef []float64 // K*(viscosityDegree+1)
-	hCoef  []float64 // K*(conductivityDegree+1)
-	vCoef  []float64 // K*(conductivityDegree+1)
-	dCoef  []float64 // K*(K-1)/2*(diffusionDegree+1), pairs j<k in row order
-	tdCoef []float64 // len(light)*K*(thermalDiffDegree+1), with mass factor
+	muCoef []float64                      // K*(viscosityDegree+1)
+	hCoef  []float64                      // K*(conductivityDegree+1)
+	vCoef  []float64                      // K*(conductivityDegree+1)
+	dCoef  [][diffusionDegree + 1]float64 // K*(K-1)/2 pairs j<k in row order
+	tdCoef []float64                      // len(light)*K*(thermalDiffDegree+1), with mass factor
 
-	// Wilke's Phi_kj = wilkeA[kj] (1 + sqrt(mu_k/mu_j) wilkeB[kj])^2.
-	wilkeA, wilkeB []float64
+	// Wilke's Phi_kj = wilkeA[kj] (1 + alpha_k beta_j)^2 with
+	// alpha_k = sqrt(mu_k)/W_k^(1/4), beta_j = W_j^(1/4)/sqrt(mu_j).
+	wilkeA []float64
+	w4     []float64 // W_k^(1/4)
 
 	maxErr     float64
 	maxErrWhat string // the quantity with the largest fit error
@@ -231,7 +234,7 @@ func (f *fitted) fitAll() error {
 			if err != nil {
 				return err
 			}
-			f.dCoef = append(f.dCoef, c...)
+			f.dCoef = append(f.dCoef, [diffusionDegree + 1]float64(c))
 		}
 	}
 	for _, k := range f.light {
@@ -340,12 +343,11 @@ func (f *fitted) fitConductivity(k int, muCoef []float64) error {
 func (f *fitted) wilkeFactors() {
 	K := len(f.species)
 	f.wilkeA = make([]float64, K*K)
-	f.wilkeB = make([]float64, K*K)
+	f.w4 = make([]float64, K)
 	for k := 0; k < K; k++ {
+		f.w4[k] = math.Sqrt(math.Sqrt(f.species[k].W))
 		for j := 0; j < K; j++ {
-			wk, wj := f.species[k].W, f.species[j].W
-			f.wilkeA[k*K+j] = 1 / math.Sqrt(8*(1+wk/wj))
-			f.wilkeB[k*K+j] = math.Sqrt(math.Sqrt(wj / wk))
+			f.wilkeA[k*K+j] = 1 / math.Sqrt(8*(1+f.species[k].W/f.species[j].W))
 		}
 	}
 }
@@ -353,14 +355,15 @@ func (f *fitted) wilkeFactors() {
 func newModel(f *fitted) *Model {
 	K := len(f.species)
 	return &Model{
-		fit:       f,
-		cachedT:   math.NaN(),
-		mu:        make([]float64, K),
-		invSqrtMu: make([]float64, K),
-		lambda:    make([]float64, K),
-		q:         make([]float64, K*K),
-		tdf:       make([]float64, len(f.light)*K),
-		x:         make([]float64, K),
+		fit:     f,
+		cachedT: math.NaN(),
+		mu:      make([]float64, K),
+		alpha:   make([]float64, K),
+		beta:    make([]float64, K),
+		lambda:  make([]float64, K),
+		q:       make([]float64, K*K),
+		tdf:     make([]float64, len(f.light)*K),
+		x:       make([]float64, K),
 	}
 }
 
@@ -395,21 +398,22 @@ func (t *Model) setTemperature(T float64) {
 		s := &f.species[k]
 		lm := horner(f.muCoef[k*nm:(k+1)*nm], u)
 		t.mu[k] = math.Exp(lm)
-		t.invSqrtMu[k] = math.Exp(-lm / 2)
+		sq := math.Exp(lm / 2)
+		t.alpha[k] = sq / f.w4[k]
+		t.beta[k] = f.w4[k] / sq
 		h := horner(f.hCoef[k*nl:(k+1)*nl], u)
 		v := horner(f.vCoef[k*nl:(k+1)*nl], u)
 		t.lambda[k] = t.mu[k] / s.W * thermo.GasConstant * (h + v*s.thermo.CpR(T))
 	}
-	const nd = diffusionDegree + 1
-	c := f.dCoef
+	// Horner written out for degree 4: the constants below fail to compile
+	// if diffusionDegree changes.
+	const _, _ = uint(diffusionDegree - 4), uint(4 - diffusionDegree)
+	i := 0
 	for j := 0; j < K; j++ {
 		for k := j + 1; k < K; k++ {
-			v := c[4]
-			v = v*u + c[3]
-			v = v*u + c[2]
-			v = v*u + c[1]
-			v = v*u + c[0]
-			c = c[nd:]
+			c := &f.dCoef[i]
+			i++
+			v := (((c[4]*u+c[3])*u+c[2])*u+c[1])*u + c[0]
 			t.q[j*K+k] = v
 			t.q[k*K+j] = v
 		}
@@ -445,15 +449,14 @@ func (t *Model) setComposition(X []float64) {
 func (t *Model) wilke() float64 {
 	f := t.fit
 	K := len(t.x)
-	x, isq := t.x, t.invSqrtMu
+	x, beta := t.x, t.beta
 	mu := 0.0
 	for k := 0; k < K; k++ {
 		a := f.wilkeA[k*K : (k+1)*K]
-		b := f.wilkeB[k*K : (k+1)*K]
-		rk := 1 / isq[k]
+		ak := t.alpha[k]
 		den := 0.0
 		for j := range a {
-			s := 1 + rk*isq[j]*b[j]
+			s := 1 + ak*beta[j]
 			den += x[j] * a[j] * s * s
 		}
 		mu += x[k] * t.mu[k] / den
