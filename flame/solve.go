@@ -86,7 +86,7 @@ type Solution struct {
 // Stats counts the work a solve did.
 type Stats struct {
 	NewtonIterations, TimeSteps, JacobianEvaluations, Factorizations, ResidualEvaluations int
-	Refinements, DomainExtensions                                                         int
+	Refinements, DomainExtensions, Regrids                                                int
 	ResidualTime, JacobianTime, FactorTime, SolveTime, WallTime                           time.Duration
 }
 
@@ -335,6 +335,7 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 	loose := set
 	loose.RelTol = math.Max(set.RelTol, looseRelTol)
 	tight := false
+	retries := 0
 	for iter := 0; ; iter++ {
 		pr := s.problemFor(sol, set)
 		use := loose
@@ -342,9 +343,20 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 			use = set
 		}
 		s.report(set, "solve", sol.Points(), "full equations")
+		before := append([]float64(nil), sol.U...)
 		res, err := newton.Solve(pr, sol.U, s.newtonOptions(use, b))
 		stats.add(res)
 		if err != nil {
+			// A grid too coarse for the flame front is the usual cause of a
+			// failed solve early on: halve every interval, restart from the
+			// state before the attempt and try again.
+			if retries < maxRegridRetries && 2*sol.Points() <= set.Grid.MaxPoints {
+				retries++
+				stats.Regrids++
+				sol.X, sol.U = bisectAll(sol.X, before, b)
+				s.report(set, "regrid", sol.Points(), "solve failed; every interval halved and retried")
+				continue
+			}
 			return sol, fmt.Errorf("%w on %d points: %v", ErrNotConverged, sol.Points(), err)
 		}
 		if iter >= set.MaxRefinements {
@@ -370,6 +382,27 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 		sol.X, sol.U = newX, newU
 		sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
 	}
+}
+
+// maxRegridRetries bounds the halvings of the whole grid after failed solves.
+const maxRegridRetries = 2
+
+// bisectAll inserts the midpoint of every interval, interpolating linearly.
+func bisectAll(x, u []float64, b int) ([]float64, []float64) {
+	n := len(x)
+	nx := make([]float64, 0, 2*n-1)
+	nu := make([]float64, 0, (2*n-1)*b)
+	for j := 0; j < n; j++ {
+		if j > 0 {
+			nx = append(nx, 0.5*(x[j-1]+x[j]))
+			for c := 0; c < b; c++ {
+				nu = append(nu, 0.5*(u[(j-1)*b+c]+u[j*b+c]))
+			}
+		}
+		nx = append(nx, x[j])
+		nu = append(nu, u[j*b:(j+1)*b]...)
+	}
+	return nx, nu
 }
 
 // looseRelTol is the relative Newton tolerance on grids that are still being
