@@ -149,8 +149,11 @@ func PseudoThermo(set *thermo.SpeciesSet, p *poolAmounts, hf, s298 float64) (the
 		K[a*n+11], K[(5+a)*n+11] = d, -d
 	}
 	// The slope row is zero for a = 0; the system stays regular because
-	// the continuity rows are independent.
-	sol, err := solveSmall(K, r, n)
+	// the continuity rows are independent. The normal equations in powers
+	// of T/1000 (up to 5) have condition numbers near 1e11, which keeps
+	// about five significant digits; the fitted cp is compared with the
+	// pool's below and the deviation reported.
+	sol, err := solveSmall(K, r, n, 1e15)
 	if err != nil {
 		return thermo.NASA7{}, 0, fmt.Errorf("pseudo-species thermo: cp fit failed: %v", err)
 	}

@@ -6,6 +6,8 @@ import (
 	"sort"
 	"strings"
 
+	"gonum.org/v1/gonum/mat"
+
 	"flame1d/thermo"
 )
 
@@ -174,7 +176,7 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 			M[r*nE+c+j] = atoms(i, e)
 		}
 	}
-	sol, err := solveSmall(M, rhs, nE)
+	sol, err := solveSmall(M, rhs, nE, 1e12)
 	if err != nil {
 		return nil, nil, fmt.Errorf("cracking: the closure unknowns (%s) cannot close the %s balances independently: %s",
 			closureUnknowns(set, p.index, bal, scale), strings.Join(elems, ", "), singularHint(scale, given))
@@ -314,52 +316,22 @@ func negativeClosure(set *thermo.SpeciesSet, f Formula, p *poolAmounts, given []
 	return fmt.Errorf("%s", msg)
 }
 
-// solveSmall solves the n×n system M x = r by Gaussian elimination with
-// partial pivoting; M and r are overwritten. It fails when a pivot is
-// below 1e-12 of its column scale (singular or nearly so).
-func solveSmall(M, r []float64, n int) ([]float64, error) {
-	colScale := make([]float64, n)
-	for i := 0; i < n; i++ {
-		for j := 0; j < n; j++ {
-			colScale[j] = math.Max(colScale[j], math.Abs(M[i*n+j]))
-		}
+// solveSmall solves the n×n system M x = r (M row-major) by LU
+// factorisation with partial pivoting (gonum/mat). It fails when M is
+// singular or its condition number exceeds maxCond: the system would not be
+// determined by its data.
+func solveSmall(M, r []float64, n int, maxCond float64) ([]float64, error) {
+	A := mat.NewDense(n, n, M)
+	var lu mat.LU
+	lu.Factorize(A)
+	if c := lu.Cond(); !(c < maxCond) {
+		return nil, fmt.Errorf("singular system (condition number %.3g)", c)
 	}
-	for c := 0; c < n; c++ {
-		piv, best := -1, 0.0
-		for i := c; i < n; i++ {
-			if a := math.Abs(M[i*n+c]); a > best {
-				piv, best = i, a
-			}
-		}
-		if piv < 0 || best <= 1e-12*colScale[c] {
-			return nil, fmt.Errorf("singular system")
-		}
-		if piv != c {
-			for j := 0; j < n; j++ {
-				M[c*n+j], M[piv*n+j] = M[piv*n+j], M[c*n+j]
-			}
-			r[c], r[piv] = r[piv], r[c]
-		}
-		for i := c + 1; i < n; i++ {
-			m := M[i*n+c] / M[c*n+c]
-			if m == 0 {
-				continue
-			}
-			for j := c; j < n; j++ {
-				M[i*n+j] -= m * M[c*n+j]
-			}
-			r[i] -= m * r[c]
-		}
+	x := mat.NewVecDense(n, nil)
+	if err := lu.SolveVecTo(x, false, mat.NewVecDense(n, r)); err != nil {
+		return nil, err
 	}
-	x := make([]float64, n)
-	for i := n - 1; i >= 0; i-- {
-		s := r[i]
-		for j := i + 1; j < n; j++ {
-			s -= M[i*n+j] * x[j]
-		}
-		x[i] = s / M[i*n+i]
-	}
-	return x, nil
+	return x.RawVector().Data, nil
 }
 
 // setSuggestion names the species of set closest to name.
