@@ -1,6 +1,12 @@
-// Package fuel turns fuel definitions into mechanism compositions: neat fuels
-// and surrogate mixtures given as mole fractions of mechanism species, and
-// the premixed fuel/oxidizer charge at an equivalence ratio.
+// Package fuel turns fuel definitions into what a flame burns on a
+// mechanism: neat fuels and surrogates given as mole fractions of mechanism
+// species, and real multicomponent fuels represented by the pool of light
+// species they crack into (mean formula, heating value, measured yields or
+// constrained equilibrium; a pseudo-species with a global cracking step, or
+// the pool itself as a pre-cracked inlet); the premixed fuel/oxidizer
+// charge at an equivalence ratio; and thermodynamic cracking studies over
+// sequences of walled-off species. Fuel definitions are TOML (Spec,
+// ParseFuels, ParseStudy), documented key by key in docs/fuels.md.
 package fuel
 
 import (
