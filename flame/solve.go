@@ -513,12 +513,7 @@ func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
 	}
 	// Place the anchor at the grid point nearest the anchor temperature and
 	// make the guess pass through it exactly.
-	ja := 1
-	for j := 1; j < len(x)-1; j++ {
-		if math.Abs(u[j*b+compT]-anchorT) < math.Abs(u[ja*b+compT]-anchorT) {
-			ja = j
-		}
-	}
+	ja := nearestTemperature(u, b, len(x), anchorT)
 	u[ja*b+compT] = anchorT
 	return &Solution{Mechanism: s.ph.mech, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT, AdiabaticT: eq.T, InitialLength: L}, nil
 }
@@ -552,11 +547,14 @@ func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings) *Solution {
 			u[base+1+k] /= sum
 		}
 		u[base+compT] += (1 - c) * (in.T - prev.Inlet.T)
-		u[base+compM(K)] *= (in.P / prev.Inlet.P) * math.Sqrt(prev.Inlet.P/in.P)
+		// S_L falls roughly as P^-1/2 while rho_u rises as P, so the mass
+		// flux scales as P^1/2 (common practice, no source),
+		// and rho_u S_L grows roughly as T_u^0.7 (S_L ~ T_u^1.7).
+		u[base+compM(K)] *= math.Sqrt(in.P/prev.Inlet.P) * math.Pow(in.T/prev.Inlet.T, 0.7)
 	}
 	anchorT := in.T + set.AnchorRise
-	ja := indexOf(x, prev.AnchorX)
-	u[ja*b+compT] = math.Max(u[ja*b+compT], anchorT)
+	ja := nearestTemperature(u, b, n, anchorT)
+	u[ja*b+compT] = anchorT
 	return &Solution{Mechanism: prev.Mechanism, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT,
 		InitialLength: prev.InitialLength}
 }
@@ -567,4 +565,16 @@ func meanMolarMassY(ph *physics, Y []float64) float64 {
 		s += y * ph.invW[k]
 	}
 	return 1 / s
+}
+
+// nearestTemperature returns the interior point whose temperature is
+// closest to T.
+func nearestTemperature(u []float64, b, n int, T float64) int {
+	ja := 1
+	for j := 1; j < n-1; j++ {
+		if math.Abs(u[j*b+compT]-T) < math.Abs(u[ja*b+compT]-T) {
+			ja = j
+		}
+	}
+	return ja
 }
