@@ -250,6 +250,27 @@ func (lc *locator) multiline(q byte) {
 	}
 }
 
+// nextElement moves to the next element of an array or inline table,
+// past blanks, comments and commas. It returns false at the closing
+// bracket (consumed) or at the end of the text.
+func (lc *locator) nextElement(closing byte) bool {
+	for {
+		lc.skipSpace(true)
+		if lc.i >= len(lc.s) {
+			return false
+		}
+		switch lc.s[lc.i] {
+		case closing:
+			lc.i++
+			return false
+		case ',':
+			lc.i++
+		default:
+			return true
+		}
+	}
+}
+
 // value skips one value, recording the keys of inline tables and the
 // elements of arrays below path.
 func (lc *locator) value(path []string) {
@@ -269,19 +290,7 @@ func (lc *locator) value(path []string) {
 		}
 	case c == '[':
 		lc.i++
-		for n := 0; ; {
-			lc.skipSpace(true)
-			if lc.i >= len(lc.s) {
-				return
-			}
-			switch lc.s[lc.i] {
-			case ']':
-				lc.i++
-				return
-			case ',':
-				lc.i++
-				continue
-			}
+		for n := 0; lc.nextElement(']'); n++ {
 			var p []string // nil: nothing below is recorded
 			if lc.keys || len(path) == 1 {
 				p = append(append(p, path...), strconv.Itoa(n))
@@ -292,23 +301,10 @@ func (lc *locator) value(path []string) {
 			if lc.i == before {
 				lc.i++
 			}
-			n++
 		}
 	case c == '{':
 		lc.i++
-		for {
-			lc.skipSpace(true)
-			if lc.i >= len(lc.s) {
-				return
-			}
-			switch lc.s[lc.i] {
-			case '}':
-				lc.i++
-				return
-			case ',':
-				lc.i++
-				continue
-			}
+		for lc.nextElement('}') {
 			line := lc.line
 			before := lc.i
 			keys := lc.keyPath()
