@@ -74,7 +74,7 @@ type Correlation struct {
 	Phi, T, P Range
 	// Fit quality over the data: number of points, degrees of freedom,
 	// and relative errors (S_L,fit - S_L)/S_L.
-	Points, DOF             int
+	Points, DOF              int
 	RMSRelative, MaxRelative float64
 	// WorstPoint is the index (in the fitted data) of the largest relative
 	// error.
