@@ -43,8 +43,9 @@ type Options struct {
 	// RetryFailed solves again the points a previous run committed as
 	// failed; by default they are kept as they are.
 	RetryFailed bool
-	// Progress, when non-nil, is called after each point is committed,
-	// from one goroutine at a time.
+	// Progress, when non-nil, is called once before the first point
+	// (Done = 0, Record nil) and after each point is committed, from one
+	// goroutine at a time.
 	Progress func(Progress)
 	// NewSolver makes one worker's solver; nil makes a study.Study of the
 	// case per worker.
@@ -203,6 +204,9 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 	total := len(inRun)
 	if total == 0 {
 		return 0, nil
+	}
+	if r.opt.Progress != nil {
+		r.opt.Progress(Progress{Total: total})
 	}
 	children := make([][]int, len(plan.Points))
 	for _, i := range r.points {

@@ -154,7 +154,7 @@ func TestRestartAfterInterruption(t *testing.T) {
 	defer cancel()
 	opt, calls := fakeOptions(2, nil)
 	opt.Progress = func(p Progress) {
-		if p.Done == 11 {
+		if p.Done == 11 && p.Record != nil {
 			cancel()
 		}
 	}
