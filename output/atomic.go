@@ -36,6 +36,10 @@ func WriteFileAtomic(path string, fill func(w io.Writer) error) (err error) {
 	if err = fill(f); err != nil {
 		return fmt.Errorf("output %s: %w", path, err)
 	}
+	// CreateTemp makes the file private (0600); results are ordinary files.
+	if err = f.Chmod(0o644); err != nil {
+		return fmt.Errorf("output %s: %w", path, err)
+	}
 	if err = f.Sync(); err != nil {
 		return fmt.Errorf("output %s: %w", path, err)
 	}

@@ -733,7 +733,7 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 			rd.errorf(sub(path, key), label, "a %s rate needs a falloff collider in the equation, e.g. \"A + B (+M) <=> AB (+M)\"", key)
 			return r, false
 		}
-		r.FalloffRate = rd.falloff(t[key], sub(path, key), label, n)
+		r.FalloffRate = rd.falloff(t[key], sub(path, key), label, highOrder(r.Form, n))
 	case chem.PressureTable, chem.Chebyshev:
 		if eq.collider != noCollider {
 			rd.errorf(sub(path, "equation"), label, "a %s rate has no third body; write the equation without M", key)
@@ -941,6 +941,18 @@ func (rd *reader) preExponential(v any, path []string, label string, n float64) 
 		return 0, false
 	}
 	return si, true
+}
+
+// highOrder is the overall order of k_inf for a falloff step whose
+// equation (without M) has order n. Unimolecular falloff: k_inf is of the
+// step's order and k0 one higher (it multiplies [M]). Chemically activated:
+// k0 is the bimolecular low-pressure rate, of the step's order, and
+// k_inf = k0 [M] / Pr one lower, since Pr = k0 [M]/k_inf is dimensionless.
+func highOrder(form chem.RateForm, n float64) float64 {
+	if form == chem.ChemicallyActivated {
+		return n - 1
+	}
+	return n
 }
 
 // falloff reads a falloff or chemically-activated table: low and high

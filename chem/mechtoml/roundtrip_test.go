@@ -194,3 +194,28 @@ func TestDiff(t *testing.T) {
 		}
 	}
 }
+
+// A chemically activated step in cm-mol-s: k0 is bimolecular
+// (1 cm^3/(mol s) = 1e-6 m^3/(mol s)) and k_inf unimolecular (1/s, no
+// conversion), since P_r = k0 [M]/k_inf is dimensionless. The writer must
+// show the published cgs numbers and read them back to the same SI values.
+func TestChemicallyActivatedUnitOrders(t *testing.T) {
+	m := &chem.Mechanism{Name: "ca", Elements: []string{"H", "O"}, Species: []chem.Species{
+		gas("H", map[string]float64{"H": 1}, 2.5, nil), gas("O2", map[string]float64{"O": 2}, 3.5, nil),
+		gas("OH", map[string]float64{"O": 1, "H": 1}, 3.5, nil), gas("O", map[string]float64{"O": 1}, 2.5, nil),
+	}}
+	m.Reactions = []chem.Reaction{{
+		Equation: "H + O2 (+M) => OH + O (+M)", Form: chem.ChemicallyActivated,
+		Reactants: []chem.Participant{{Species: 0, Coefficient: 1}, {Species: 1, Coefficient: 1}},
+		Products:  []chem.Participant{{Species: 2, Coefficient: 1}, {Species: 3, Coefficient: 1}},
+		ThirdBody: &chem.ThirdBody{Default: 1},
+		FalloffRate: &chem.FalloffRate{Low: chem.Arrhenius{A: 2e7}, High: chem.Arrhenius{A: 5e9}},
+	}}
+	back, text := roundTrip(t, m)
+	if !strings.Contains(text, "low = {A = 2e+13") || !strings.Contains(text, "high = {A = 5e+09") {
+		t.Errorf("written limits not in cgs of the right order:\n%s", text)
+	}
+	if d := Diff(m, back); d != "" {
+		t.Error(d)
+	}
+}

@@ -538,7 +538,8 @@ func (w *writer) reaction(i int) error {
 			name = "chemically_activated"
 		}
 		f := r.FalloffRate
-		fmt.Fprintf(b, "[reaction.%s]\nlow = %s\nhigh = %s\n", name, w.arrhenius(f.Low, n+1), w.arrhenius(f.High, n))
+		nh := highOrder(r.Form, n)
+		fmt.Fprintf(b, "[reaction.%s]\nlow = %s\nhigh = %s\n", name, w.arrhenius(f.Low, nh+1), w.arrhenius(f.High, nh))
 		if t := f.Troe; t != nil {
 			fmt.Fprintf(b, "troe = {a = %s, T3 = %s, T1 = %s", w.num(t.A), w.num(t.T3), w.num(t.T1))
 			if t.HasT2 {
