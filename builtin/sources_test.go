@@ -2,6 +2,7 @@ package builtin
 
 import (
 	"flag"
+	"flame1d/internal/shareddata"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -95,30 +96,8 @@ func (s source) description(original string) string {
 	return d
 }
 
-// sharedMechanisms finds ../shared/data/mechanisms beside the repository
-// (the directory holding go.mod), or skips the test.
-func sharedMechanisms(t *testing.T) string {
-	t.Helper()
-	dir, err := os.Getwd()
-	if err != nil {
-		t.Fatal(err)
-	}
-	for {
-		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
-			break
-		}
-		parent := filepath.Dir(dir)
-		if parent == dir {
-			t.Skip("repository root (go.mod) not found")
-		}
-		dir = parent
-	}
-	shared := filepath.Join(filepath.Dir(dir), "shared", "data", "mechanisms")
-	if _, err := os.Stat(shared); err != nil {
-		t.Skipf("published mechanism data not available at %s: %v", shared, err)
-	}
-	return shared
-}
+// sharedMechanisms is shareddata.MechanismsDir.
+func sharedMechanisms(t *testing.T) string { t.Helper(); return shareddata.MechanismsDir(t) }
 
 // imported converts a source afresh, as the generator does.
 func imported(t *testing.T, shared string, s source) *chem.Mechanism {

@@ -1,9 +1,9 @@
 package fuel
 
 import (
+	"flame1d/internal/shareddata"
 	"math"
 	"os"
-	"path/filepath"
 	"sync"
 	"testing"
 
@@ -13,30 +13,8 @@ import (
 	"flame1d/thermo"
 )
 
-// sharedMechanisms returns the published mechanism sets kept beside the
-// repository (the shared folder next to the repository root), or skips.
-func sharedMechanisms(t testing.TB) string {
-	t.Helper()
-	dir, err := os.Getwd()
-	if err != nil {
-		t.Fatal(err)
-	}
-	for {
-		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
-			break
-		}
-		parent := filepath.Dir(dir)
-		if parent == dir {
-			t.Skip("repository root (go.mod) not found; shared mechanism data unavailable")
-		}
-		dir = parent
-	}
-	shared := filepath.Join(dir, "..", "shared", "data", "mechanisms")
-	if _, err := os.Stat(shared); err != nil {
-		t.Skipf("shared mechanism data not found at %s: %v", shared, err)
-	}
-	return shared
-}
+// sharedMechanisms is shareddata.MechanismsDir.
+func sharedMechanisms(t testing.TB) string { t.Helper(); return shareddata.MechanismsDir(t) }
 
 // readThermoFile reads every record of a classic thermo file as species.
 func readThermoFile(t testing.TB, path string) []thermo.Species {

@@ -1,36 +1,14 @@
 package keyblock
 
 import (
+	"flame1d/internal/shareddata"
 	"os"
 	"path/filepath"
 	"testing"
 )
 
-// mechanismsDir returns the published mechanism sets kept beside the
-// repository (../shared/data/mechanisms from the repository root), or skips
-// the test when that folder is absent.
-func mechanismsDir(t testing.TB) string {
-	t.Helper()
-	dir, err := os.Getwd()
-	if err != nil {
-		t.Fatal(err)
-	}
-	for {
-		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
-			break
-		}
-		parent := filepath.Dir(dir)
-		if parent == dir {
-			t.Skip("repository root (go.mod) not found; shared mechanism data unavailable")
-		}
-		dir = parent
-	}
-	shared := filepath.Join(dir, "..", "shared", "data", "mechanisms")
-	if _, err := os.Stat(shared); err != nil {
-		t.Skipf("shared mechanism data not found at %s: %v", shared, err)
-	}
-	return shared
-}
+// mechanismsDir is shareddata.MechanismsDir.
+func mechanismsDir(t testing.TB) string { t.Helper(); return shareddata.MechanismsDir(t) }
 
 func openShared(t testing.TB, set, file string) (*os.File, string) {
 	t.Helper()

@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"errors"
+	"flame1d/internal/shareddata"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -14,29 +15,8 @@ import (
 	"flame1d/chem/mechtoml"
 )
 
-// sharedMechanisms returns ../shared/data/mechanisms beside the repository
-// root, or skips.
-func sharedMechanisms(t *testing.T) string {
-	t.Helper()
-	dir, err := filepath.Abs(".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	for {
-		if _, err := os.Stat(filepath.Join(dir, "go.mod")); err == nil {
-			break
-		}
-		if filepath.Dir(dir) == dir {
-			t.Skip("repository root not found")
-		}
-		dir = filepath.Dir(dir)
-	}
-	d := filepath.Join(dir, "..", "shared", "data", "mechanisms")
-	if _, err := os.Stat(d); err != nil {
-		t.Skipf("shared mechanism data not found at %s", d)
-	}
-	return d
-}
+// sharedMechanisms is shareddata.MechanismsDir.
+func sharedMechanisms(t *testing.T) string { t.Helper(); return shareddata.MechanismsDir(t) }
 
 const brokenMech = `! broken on purpose
 ELEMENTS H O END
