@@ -82,14 +82,16 @@ func newArrhenius(a Arrhenius) (arrhenius, error) {
 	return r, nil
 }
 
-// eval returns k(T) and dk/dT, with dk/dT = k (b + E/(RT))/T.
-func (a *arrhenius) eval(lnT, invT float64) (k, dkdT float64) {
+// value returns k(T).
+func (a *arrhenius) value(lnT, invT float64) float64 {
 	if a.constant {
-		return a.a, 0
+		return a.a
 	}
-	k = a.sign * math.Exp(a.lnA+a.b*lnT-a.eR*invT)
-	return k, k * (a.b + a.eR*invT) * invT
+	return a.sign * math.Exp(a.lnA+a.b*lnT-a.eR*invT)
 }
+
+// dlnkdT returns d ln k/dT = (b + E/(RT))/T.
+func (a *arrhenius) dlnkdT(invT float64) float64 { return (a.b + a.eR*invT) * invT }
 
 // logAbs returns ln|k(T)| (meaningful only when sign != 0).
 func (a *arrhenius) logAbs(lnT, invT float64) float64 {
@@ -120,10 +122,6 @@ type reactionData struct {
 	nuBeg    int32 // net stoichiometry (products minus reactants) [nuBeg, nuEnd)
 	nuEnd    int32
 	dnu      float64 // sum of net stoichiometric coefficients
-	// intNu: every net coefficient and Δν is an integer, so Kc can be formed
-	// by multiplying the species factors exp(-g/RT) (stoich.n, dnuInt).
-	intNu  bool
-	dnuInt int
 }
 
 type broadening uint8
@@ -171,6 +169,20 @@ type kineticsModel struct {
 	facs []factor // concentration factors of all reactions
 	nus  []stoich // net stoichiometry of all reactions
 
+	// Compact per-reaction copies of the above for the hot loops: fixed
+	// slots, padded with species index nsp (a constant 1 in the extended
+	// concentration vector).
+	mass []massAction
+	kcs  []kcProduct
+
+	// The net stoichiometry by species (transpose of nus): species k has
+	// entries [bySpBeg[k], bySpBeg[k+1]) of (reaction, nu), reactions
+	// ascending, so wdot_k is gathered in the same order as the Jacobian
+	// scatters it.
+	bySpBeg []int32
+	bySpRx  []int32
+	bySpNu  []float64
+
 	// tbEff holds the collision efficiency of every species for each
 	// distinct third-body set: set t at [t*nsp, (t+1)*nsp). Dense, so that
 	// [M] = sum_k eff_k C_k is a sum of non-negative terms (no cancellation
@@ -200,13 +212,14 @@ type kineticsModel struct {
 // kineticsWork holds the per-instance arrays.
 type kineticsWork struct {
 	lastT     float64 // temperature of the cached per-T quantities; NaN when empty
+	derivT    float64 // temperature of the cached per-T derivatives; NaN when none
 	lnT, invT float64
 	gRT, hRT  []float64
-	expG      []float64 // exp(-g/RT) per species
-	expGinv   []float64 // exp(+g/RT)
+	gPow      []float64 // per species exp(g/RT), exp(-g/RT), exp(2g/RT), exp(-2g/RT); then 1
+	stdPow    [5]float64
 	invKc     []float64 // 1/Kc of reversible steps without explicit reverse
 	dlnKcdT   []float64 // d ln Kc/dT, same steps
-	foT       []float64 // per falloff, foStride entries: see falloffTemperature
+	foT       []float64 // per falloff, foStride entries: see falloffData.temperature
 	lvlK      []float64 // per pressure level: summed k, dk/dT, ln k (k > 0 only)
 	chebA     []float64 // per Chebyshev: a_j(T), da_j/dT (two blocks)
 	phi, dphi []float64 // Chebyshev polynomial scratch
@@ -217,6 +230,8 @@ type kineticsWork struct {
 	dkrdT     []float64
 	dkfdX     []float64 // falloff: dkf/d[M]; pressure forms: dkf/d ln P
 	facVal    []float64 // factor values C^a (Jacobian only)
+	cx        []float64 // C extended by the padding slot
+	mult      []float64 // 1, then [M] of each third-body set
 	fwd, rev  []float64
 	net       []float64
 	wdot      []float64
@@ -236,8 +251,8 @@ const (
 	// functions: log10 Pr stays finite at [M] = 0. F is frozen below it, a
 	// state that needs k0 [M]/k_inf < 1e-100 and does not occur in flames.
 	prFloor = 1e-100
-	// positiveFloor replaces a non-positive Fcent, SRI base or Chebyshev
-	// argument of a logarithm (only reachable with unphysical parameters).
+	// positiveFloor replaces a non-positive Troe Fcent or SRI base before
+	// its logarithm (only reachable with unphysical parameters).
 	positiveFloor = 1e-300
 	// negOrderFloor is the smallest concentration [mol/m^3] raised to a
 	// negative exponent.
@@ -279,6 +294,7 @@ func NewKinetics(m *Mechanism) (*Kinetics, error) {
 			km.pdep = append(km.pdep, int32(i))
 		}
 	}
+	km.indexBySpecies()
 	k := &Kinetics{m: km}
 	k.w = km.newWork()
 	return k, nil
@@ -300,8 +316,8 @@ func (km *kineticsModel) newWork() kineticsWork {
 	n, K := len(km.rx), km.nsp
 	f := func(n int) []float64 { return make([]float64, n) }
 	return kineticsWork{
-		lastT: math.NaN(),
-		gRT:   f(K), hRT: f(K), expG: f(K), expGinv: f(K),
+		lastT: math.NaN(), derivT: math.NaN(),
+		gRT: f(K), hRT: f(K), gPow: f(4*K + 1),
 		invKc: f(n), dlnKcdT: f(n),
 		foT:       f(foStride * len(km.falloffs)),
 		lvlK:      f(3 * len(km.lvlLnP)),
@@ -309,7 +325,8 @@ func (km *kineticsModel) newWork() kineticsWork {
 		phi:       f(km.maxChebLen),
 		dphi:      f(km.maxChebLen),
 		thirdBody: f(km.ntb),
-		kf:        f(n), kr: f(n), dkfdT: f(n), dkrdT: f(n), dkfdX: f(n),
+		cx:        f(K + 1), mult: f(km.ntb + 1),
+		kf: f(n), kr: f(n), dkfdT: f(n), dkrdT: f(n), dkfdX: f(n),
 		facVal: f(len(km.facs)),
 		fwd:    f(n), rev: f(n), net: f(n),
 		wdot:      f(K),
@@ -333,9 +350,8 @@ func (k *Kinetics) NetProductionRates(T float64, C, wdot []float64) {
 	K := k.m.nsp
 	checkLen("C", len(C), K)
 	checkLen("wdot", len(wdot), K)
-	k.update(T, C)
-	k.progress(C)
-	k.accumulate(wdot[:K])
+	k.update(T, C, false)
+	k.progress(C, wdot[:K])
 }
 
 // RatesOfProgress writes, per reaction, the forward rate of progress
@@ -348,8 +364,8 @@ func (k *Kinetics) RatesOfProgress(T float64, C, forward, reverse, net []float64
 	checkLen("forward", len(forward), n)
 	checkLen("reverse", len(reverse), n)
 	checkLen("net", len(net), n)
-	k.update(T, C)
-	k.progress(C)
+	k.update(T, C, false)
+	k.progress(C, nil)
 	copy(forward, k.w.fwd)
 	copy(reverse, k.w.rev)
 	copy(net, k.w.net)
@@ -368,7 +384,7 @@ func (k *Kinetics) RateConstants(T float64, C, kf, kr []float64) {
 	checkLen("C", len(C), k.m.nsp)
 	checkLen("kf", len(kf), n)
 	checkLen("kr", len(kr), n)
-	k.update(T, C)
+	k.update(T, C, false)
 	copy(kf, k.w.kf)
 	copy(kr, k.w.kr)
 }
@@ -384,7 +400,7 @@ func (k *Kinetics) RateConstants(T float64, C, kf, kr []float64) {
 // +Inf or 0.
 func (k *Kinetics) EquilibriumConstants(T float64, Kc []float64) {
 	checkLen("Kc", len(Kc), len(k.m.rx))
-	k.setTemperature(T)
+	k.setTemperature(T, false)
 	lnStd := lnStdOverR - k.w.lnT
 	for i := range k.m.rx {
 		r := &k.m.rx[i]
@@ -409,9 +425,10 @@ func (k *Kinetics) HeatReleaseRate(T float64, C []float64) float64 {
 }
 
 // update brings the per-T cache to T and completes the rate constants of
-// the C- and P-dependent reactions at (T, C), with their derivatives.
-func (k *Kinetics) update(T float64, C []float64) {
-	k.setTemperature(T)
+// the C- and P-dependent reactions at (T, C). With derivs, the derivatives
+// used by ProductionRateDerivatives are made valid too.
+func (k *Kinetics) update(T float64, C []float64, derivs bool) {
+	k.setTemperature(T, derivs)
 	m, w := k.m, &k.w
 	K := m.nsp
 	C = C[:K]
@@ -446,50 +463,68 @@ func (k *Kinetics) update(T float64, C []float64) {
 		if r.reverse == reverseFromKc {
 			kr := w.kf[i] * w.invKc[i]
 			w.kr[i] = kr
-			w.dkrdT[i] = w.dkfdT[i]*w.invKc[i] - kr*w.dlnKcdT[i]
+			if derivs {
+				w.dkrdT[i] = w.dkfdT[i]*w.invKc[i] - kr*w.dlnKcdT[i]
+			}
 		}
 	}
 }
 
 // setTemperature fills the per-T cache unless it already holds T: species
-// g/RT and h/RT, 1/Kc and d ln Kc/dT where the reverse needs them, complete rate
-// constants of the Elementary and ThreeBody forms and of explicit reverse
-// rates, and the T-dependent parts of the other forms.
-func (k *Kinetics) setTemperature(T float64) {
+// g/RT and h/RT, 1/Kc where the reverse needs it, complete rate constants
+// of the Elementary and ThreeBody forms and of explicit reverse rates, and
+// the T-dependent parts of the other forms. With derivs it also fills the
+// T-derivatives of those rate constants and d ln Kc/dT (only the Jacobian
+// needs them).
+func (k *Kinetics) setTemperature(T float64, derivs bool) {
 	w := &k.w
-	if T == w.lastT {
-		return
+	if T != w.lastT {
+		k.temperatureValues(T)
 	}
-	m := k.m
+	if derivs && T != w.derivT {
+		k.temperatureDerivatives()
+	}
+}
+
+func (k *Kinetics) temperatureValues(T float64) {
+	m, w := k.m, &k.w
 	lnT, invT := math.Log(T), 1/T
 	w.lnT, w.invT = lnT, invT
+	gmax := 0.0
+	K := m.nsp
 	for i := range m.thermo {
 		p := &m.thermo[i]
 		h := p.HRT(T)
 		g := h - p.SR(T) // = p.GRT(T), without evaluating h twice
 		w.hRT[i], w.gRT[i] = h, g
-		e := math.Exp(-g)
-		w.expG[i], w.expGinv[i] = e, 1/e
+		gmax = math.Max(gmax, math.Abs(g))
+		up, down := math.Exp(g), 0.0
+		if up != 0 {
+			down = 1 / up
+		}
+		gp := w.gPow[4*i : 4*i+4]
+		gp[0], gp[1], gp[2], gp[3] = up, down, up*up, down*down
 	}
+	w.gPow[4*K] = 1
 	lnStd := lnStdOverR - lnT
-	rtOverStd := thermo.GasConstant * T / thermo.StandardPressure
+	rt := thermo.GasConstant * T / thermo.StandardPressure
+	w.stdPow = [5]float64{1 / (rt * rt), 1 / rt, 1, rt, rt * rt}
 	for i := range m.rx {
 		r := &m.rx[i]
 		if r.reverse == reverseFromKc {
-			w.invKc[i], w.dlnKcdT[i] = k.inverseKc(r, lnStd, rtOverStd, invT)
+			w.invKc[i] = k.inverseKc(i, gmax, lnStd)
 		}
 		switch r.form {
 		case Elementary, ThreeBody:
-			kf, dkf := r.rate.eval(lnT, invT)
-			w.kf[i], w.dkfdT[i], w.dkfdX[i] = kf, dkf, 0
+			kf := r.rate.value(lnT, invT)
+			w.kf[i], w.dkfdX[i] = kf, 0
 			if r.reverse == reverseFromKc {
-				kr := kf * w.invKc[i]
-				w.kr[i], w.dkrdT[i] = kr, dkf*w.invKc[i]-kr*w.dlnKcdT[i]
+				w.kr[i] = kf * w.invKc[i]
 			}
 		}
 		switch r.reverse {
 		case reverseExplicit:
-			w.kr[i], w.dkrdT[i] = r.revRate.eval(lnT, invT)
+			w.kr[i] = r.revRate.value(lnT, invT)
 		case irreversible:
 			w.kr[i], w.dkrdT[i] = 0, 0
 		}
@@ -500,9 +535,9 @@ func (k *Kinetics) setTemperature(T float64) {
 	for l := range m.lvlLnP {
 		s, ds := 0.0, 0.0
 		for e := m.lvlSetBeg[l]; e < m.lvlSetBeg[l+1]; e++ {
-			v, dv := m.sets[e].eval(lnT, invT)
+			v := m.sets[e].value(lnT, invT)
 			s += v
-			ds += dv
+			ds += v * m.sets[e].dlnkdT(invT)
 		}
 		lk := 0.0 // read only when s > 0
 		if s > 0 {
@@ -513,46 +548,67 @@ func (k *Kinetics) setTemperature(T float64) {
 	for c := range m.chebs {
 		k.chebyshevTemperature(&m.chebs[c], invT)
 	}
-	w.lastT = T
+	w.lastT, w.derivT = T, math.NaN()
 }
 
-// inverseKc returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν, limited to
-// [e^-maxExpArg, e^maxExpArg], and d ln Kc/dT = (sum nu h/RT - Δν)/T. With
-// integer coefficients 1/Kc is a product of the cached species factors
-// exp(±g/RT) and of RT/P° (multiplications only), used when no partial
-// product can leave the float range (sum |nu g/RT| + |Δν ln(P°/RT)| below
-// maxExpArg); otherwise one exponential.
-func (k *Kinetics) inverseKc(r *reactionData, lnStd, rtOverStd, invT float64) (invKc, dlnKcdT float64) {
+// temperatureDerivatives fills d ln Kc/dT = (sum nu h/RT - Δν)/T and the
+// T-derivatives of the rate constants completed per T, at the cached T.
+func (k *Kinetics) temperatureDerivatives() {
 	m, w := k.m, &k.w
-	nus := m.nus[r.nuBeg:r.nuEnd]
-	sg, sh, sAbs := 0.0, 0.0, 0.0
-	for _, s := range nus {
-		g := s.nu * w.gRT[s.sp]
-		sg += g
-		sh += s.nu * w.hRT[s.sp]
-		sAbs += math.Abs(g)
-	}
-	dlnKcdT = (sh - r.dnu) * invT
-	if !r.intNu || sAbs+math.Abs(r.dnu*lnStd) >= maxExpArg {
-		return math.Exp(math.Max(-maxExpArg, math.Min(maxExpArg, sg-r.dnu*lnStd))), dlnKcdT
-	}
-	invKc = 1
-	for n := r.dnuInt; n > 0; n-- {
-		invKc *= rtOverStd
-	}
-	for n := r.dnuInt; n < 0; n++ {
-		invKc *= 1 / rtOverStd
-	}
-	for _, s := range nus {
-		up, down := w.expGinv[s.sp], w.expG[s.sp]
-		for n := s.n; n > 0; n-- {
-			invKc *= up
+	invT := w.invT
+	for i := range m.rx {
+		r := &m.rx[i]
+		if r.reverse == reverseFromKc {
+			sh := 0.0
+			for _, s := range m.nus[r.nuBeg:r.nuEnd] {
+				sh += s.nu * w.hRT[s.sp]
+			}
+			w.dlnKcdT[i] = (sh - r.dnu) * invT
 		}
-		for n := s.n; n < 0; n++ {
-			invKc *= down
+		switch r.form {
+		case Elementary, ThreeBody:
+			dkf := w.kf[i] * r.rate.dlnkdT(invT)
+			w.dkfdT[i] = dkf
+			if r.reverse == reverseFromKc {
+				w.dkrdT[i] = dkf*w.invKc[i] - w.kr[i]*w.dlnKcdT[i]
+			}
+		}
+		if r.reverse == reverseExplicit {
+			w.dkrdT[i] = w.kr[i] * r.revRate.dlnkdT(invT)
 		}
 	}
-	return invKc, dlnKcdT
+	w.derivT = w.lastT
+}
+
+// kcProduct prepares 1/Kc of a reaction as a product of cached factors:
+// gPow[idx[0..3]] (exp(nu g/RT) for nu = ±1, ±2) and stdPow[std]
+// ((RT/P°)^Δν for |Δν| <= 2).
+type kcProduct struct {
+	idx    [4]int32
+	std    int32
+	nuAbs  float64 // sum |nu|
+	usable bool    // at most 4 net species, |nu| <= 2, |Δν| <= 2
+}
+
+// inverseKc returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν for reaction i,
+// limited to [e^-maxExpArg, e^maxExpArg]. Where the reaction allows it, the
+// cached species factors are multiplied (no exponential); that is exact to
+// round-off when no partial product can leave the float range, which the
+// bound sum|nu| max|g/RT| + 2 |ln(P°/RT)| < maxExpArg guarantees.
+// Otherwise one exponential of the summed logarithm.
+func (k *Kinetics) inverseKc(i int, gmax, lnStd float64) float64 {
+	m, w := k.m, &k.w
+	kp := &m.kcs[i]
+	if kp.usable && kp.nuAbs*gmax+2*math.Abs(lnStd) < maxExpArg {
+		g := w.gPow
+		return w.stdPow[kp.std] * g[kp.idx[0]] * g[kp.idx[1]] * g[kp.idx[2]] * g[kp.idx[3]]
+	}
+	r := &m.rx[i]
+	sg := 0.0
+	for _, s := range m.nus[r.nuBeg:r.nuEnd] {
+		sg += s.nu * w.gRT[s.sp]
+	}
+	return math.Exp(math.Max(-maxExpArg, math.Min(maxExpArg, sg-r.dnu*lnStd)))
 }
 
 // powFactor returns C^a for a non-unit exponent a, with the guards of the
@@ -595,7 +651,6 @@ type factor struct {
 // stoich is one net stoichiometric coefficient of a reaction.
 type stoich struct {
 	sp int32
-	n  int32 // nu as an integer, where reactionData.intNu
 	nu float64
 }
 
@@ -616,35 +671,52 @@ func product(C []float64, fs []factor, vals []float64) float64 {
 	return p
 }
 
-// progress computes the forward, reverse and net rates of progress from the
-// rate constants of the last update.
-func (k *Kinetics) progress(C []float64) {
-	m, w := k.m, &k.w
-	for i := range m.rx {
-		r := &m.rx[i]
-		f := w.kf[i] * product(C, m.facs[r.fBeg:r.fEnd], nil)
-		b := 0.0
-		if r.reverse != irreversible {
-			b = w.kr[i] * product(C, m.facs[r.rBeg:r.rEnd], nil)
-		}
-		if r.form == ThreeBody {
-			M := w.thirdBody[r.thirdBdy]
-			f *= M
-			b *= M
-		}
-		w.fwd[i], w.rev[i], w.net[i] = f, b, f-b
-	}
+// massAction holds up to three unit-order concentration factors per
+// direction and the rate multiplier slot (0: 1; 1+t: [M] of set t, for the
+// ThreeBody form). general: more factors or other orders, use facs.
+type massAction struct {
+	f, r    [3]int32
+	mult    int32
+	general bool
 }
 
-// accumulate writes wdot = sum_r nu_r q_r from the last progress.
-func (k *Kinetics) accumulate(wdot []float64) {
+// progress computes the forward, reverse and net rates of progress from the
+// rate constants of the last update and, when wdot is not nil, the net
+// production rates. Operation order matches ProductionRateDerivatives, so
+// both give bitwise the same wdot.
+func (k *Kinetics) progress(C, wdot []float64) {
 	m, w := k.m, &k.w
-	clear(wdot)
+	K := m.nsp
+	cx := w.cx
+	copy(cx, C[:K])
+	cx[K] = 1
+	w.mult[0] = 1
+	copy(w.mult[1:], w.thirdBody)
 	for i := range m.rx {
-		r := &m.rx[i]
-		q := w.net[i]
-		for _, s := range m.nus[r.nuBeg:r.nuEnd] {
-			wdot[s.sp] += s.nu * q
+		ma := &m.mass[i]
+		var pf, pr float64
+		if !ma.general {
+			pf = cx[ma.f[0]] * cx[ma.f[1]] * cx[ma.f[2]]
+			pr = cx[ma.r[0]] * cx[ma.r[1]] * cx[ma.r[2]]
+		} else {
+			r := &m.rx[i]
+			pf = product(C, m.facs[r.fBeg:r.fEnd], nil)
+			pr = product(C, m.facs[r.rBeg:r.rEnd], nil)
 		}
+		M := w.mult[ma.mult]
+		f := w.kf[i] * pf * M
+		b := w.kr[i] * pr * M
+		w.fwd[i], w.rev[i], w.net[i] = f, b, f-b
+	}
+	if wdot == nil {
+		return
+	}
+	net := w.net
+	for sp := range wdot[:K] {
+		s := 0.0
+		for e := m.bySpBeg[sp]; e < m.bySpBeg[sp+1]; e++ {
+			s += m.bySpNu[e] * net[m.bySpRx[e]]
+		}
+		wdot[sp] = s
 	}
 }

@@ -70,7 +70,52 @@ func (km *kineticsModel) addReaction(r *Reaction, d *reactionData) error {
 		return err
 	}
 	km.maxSparse = max(km.maxSparse, int(d.rEnd-d.fBeg))
+	km.addCompact(d)
 	return nil
+}
+
+// addCompact appends the fixed-slot copies of d's factors and 1/Kc product
+// (see massAction, kcProduct).
+func (km *kineticsModel) addCompact(d *reactionData) {
+	pad := int32(km.nsp)
+	ma := massAction{f: [3]int32{pad, pad, pad}, r: [3]int32{pad, pad, pad}}
+	slots := func(fs []factor, dst *[3]int32) {
+		if len(fs) > 3 {
+			ma.general = true
+			return
+		}
+		for n, f := range fs {
+			if f.ord != 1 {
+				ma.general = true
+			}
+			dst[n] = f.sp
+		}
+	}
+	slots(km.facs[d.fBeg:d.fEnd], &ma.f)
+	slots(km.facs[d.rBeg:d.rEnd], &ma.r)
+	if d.form == ThreeBody {
+		ma.mult = 1 + d.thirdBdy
+	}
+	km.mass = append(km.mass, ma)
+
+	nus := km.nus[d.nuBeg:d.nuEnd]
+	one := int32(4 * km.nsp)
+	kp := kcProduct{idx: [4]int32{one, one, one, one}, std: int32(d.dnu) + 2,
+		usable: len(nus) <= 4 && d.dnu == math.Trunc(d.dnu) && math.Abs(d.dnu) <= 2}
+	code := map[float64]int32{1: 0, -1: 1, 2: 2, -2: 3} // gPow slot of exp(nu g/RT)
+	for n, st := range nus {
+		kp.nuAbs += math.Abs(st.nu)
+		if n >= 4 {
+			continue
+		}
+		c, ok := code[st.nu]
+		kp.usable = kp.usable && ok
+		kp.idx[n] = 4*st.sp + c
+	}
+	if !kp.usable {
+		kp.std = 2
+	}
+	km.kcs = append(km.kcs, kp)
 }
 
 // addFactors appends the concentration factors of one side: each species'
@@ -118,7 +163,7 @@ func (km *kineticsModel) addFactors(side []Participant, orders map[int]float64) 
 }
 
 // addNetStoichiometry appends products-minus-reactants coefficients (zero
-// net entries dropped) and sets Δν and the integer-coefficient flag of d.
+// net entries dropped) and sets Δν of d.
 func (km *kineticsModel) addNetStoichiometry(r *Reaction, d *reactionData) {
 	var order []int
 	nu := map[int]float64{}
@@ -132,17 +177,13 @@ func (km *kineticsModel) addNetStoichiometry(r *Reaction, d *reactionData) {
 	}
 	add(r.Reactants, -1)
 	add(r.Products, 1)
-	isInt := func(v float64) bool { return v == math.Trunc(v) && math.Abs(v) <= maxRepeatedOrder }
-	d.dnu, d.intNu = 0, true
+	d.dnu = 0
 	for _, s := range order {
 		if v := nu[s]; v != 0 {
-			km.nus = append(km.nus, stoich{sp: int32(s), n: int32(v), nu: v})
+			km.nus = append(km.nus, stoich{sp: int32(s), nu: v})
 			d.dnu += v
-			d.intNu = d.intNu && isInt(v)
 		}
 	}
-	d.intNu = d.intNu && isInt(d.dnu)
-	d.dnuInt = int(d.dnu)
 }
 
 // addThirdBody returns the index of the collider set tb, adding it unless
@@ -285,4 +326,24 @@ func (km *kineticsModel) addChebyshev(c *ChebyshevRate) error {
 	km.maxChebLen = max(km.maxChebLen, nT, nP)
 	km.chebs = append(km.chebs, cd)
 	return nil
+}
+
+// indexBySpecies builds the species-major copy of the net stoichiometry.
+func (km *kineticsModel) indexBySpecies() {
+	km.bySpBeg = make([]int32, km.nsp+1)
+	for _, st := range km.nus {
+		km.bySpBeg[st.sp+1]++
+	}
+	for k := 0; k < km.nsp; k++ {
+		km.bySpBeg[k+1] += km.bySpBeg[k]
+	}
+	km.bySpRx = make([]int32, len(km.nus))
+	km.bySpNu = make([]float64, len(km.nus))
+	next := append([]int32(nil), km.bySpBeg[:km.nsp]...)
+	for i := range km.rx {
+		for _, st := range km.nus[km.rx[i].nuBeg:km.rx[i].nuEnd] {
+			km.bySpRx[next[st.sp]], km.bySpNu[next[st.sp]] = int32(i), st.nu
+			next[st.sp]++
+		}
+	}
 }

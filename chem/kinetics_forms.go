@@ -12,8 +12,6 @@ import "math"
 // T part with its derivative (log10 Fcent for Troe, ln of the SRI base).
 const foStride = 7
 
-func (a *arrhenius) dlnkdT(invT float64) float64 { return (a.b + a.eR*invT) * invT }
-
 // temperature fills the falloff's per-T cache c.
 func (fo *falloffData) temperature(T, lnT, invT float64, c []float64) {
 	l0, lInf := fo.low.logAbs(lnT, invT), fo.high.logAbs(lnT, invT)

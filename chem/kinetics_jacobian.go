@@ -25,7 +25,7 @@ func (k *Kinetics) ProductionRateDerivatives(T float64, C, wdot, dWdC, dWdT []fl
 	checkLen("wdot", len(wdot), K)
 	checkLen("dWdC", len(dWdC), K*K)
 	checkLen("dWdT", len(dWdT), K)
-	k.update(T, C)
+	k.update(T, C, true)
 	clear(wdot[:K])
 	clear(dWdC[:K*K])
 	clear(dWdT[:K])
