@@ -61,7 +61,7 @@ func DefaultSettings() Settings {
 	}
 	c.MinRange = 1e-6
 	return Settings{
-		Grid: c, InitialPoints: 30, AnchorRise: 400, ThermalDiffusion: true,
+		Grid: c, InitialPoints: 40, AnchorRise: 400, ThermalDiffusion: true,
 		RelTol: 1e-6, AbsTolY: 1e-11, AbsTolT: 1e-6, MaxRefinements: 40,
 	}
 }
@@ -407,7 +407,7 @@ func bisectAll(x, u []float64, b int) ([]float64, []float64) {
 
 // looseRelTol is the relative Newton tolerance on grids that are still being
 // refined.
-const looseRelTol = 1e-4
+const looseRelTol = 1e-3
 
 // Flatness limits for the domain ends. At the inlet, the temperature
 // gradient relative to the peak gradient: 1e-3 keeps the heat lost to the
