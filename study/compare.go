@@ -238,13 +238,19 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 	return nil
 }
 
+// overlayPoolSpecies is how many pool species per fuel the species overlay
+// shows (the largest peaks), so the chart stays readable.
+const overlayPoolSpecies = 3
+
 func poolNames(r *Result) []string {
-	var out []string
 	if r.Summary.Zones == nil {
 		return nil
 	}
-	for _, p := range r.Summary.Zones.PoolPeaks {
-		out = append(out, p.Species)
+	peaks := append([]flame.SpeciesPeak(nil), r.Summary.Zones.PoolPeaks...)
+	sort.Slice(peaks, func(a, b int) bool { return peaks[a].MoleFraction > peaks[b].MoleFraction })
+	var out []string
+	for i := 0; i < len(peaks) && i < overlayPoolSpecies; i++ {
+		out = append(out, peaks[i].Species)
 	}
 	return out
 }
