@@ -11,6 +11,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"strings"
 
 	"flame1d/casefile"
@@ -153,7 +154,9 @@ type Manifest struct {
 	Shard      Shard      `json:"shard"`
 	// MergedFrom lists the shard folders a merged folder was joined from.
 	MergedFrom []string `json:"merged_from,omitempty"`
-	Note       string   `json:"note"`
+	// Program identifies the flame1d build that started the folder.
+	Program string `json:"program,omitempty"`
+	Note    string `json:"note"`
 }
 
 const (
@@ -195,19 +198,56 @@ func ReadManifest(dir string) (*Manifest, error) {
 	return &m, nil
 }
 
+// ProgramIdentity names this build of flame1d: module version, source
+// revision (marked when the work tree had changes) and the start of the
+// executable's SHA-256. Points solved by different builds may differ in the
+// last digits.
+func ProgramIdentity() string {
+	parts := []string{"flame1d"}
+	if bi, ok := debug.ReadBuildInfo(); ok {
+		parts = append(parts, bi.Main.Version)
+		rev, modified := "", false
+		for _, s := range bi.Settings {
+			switch s.Key {
+			case "vcs.revision":
+				rev = s.Value
+			case "vcs.modified":
+				modified = s.Value == "true"
+			}
+		}
+		if rev != "" {
+			if modified {
+				rev += "+changes"
+			}
+			parts = append(parts, "revision "+rev)
+		}
+	}
+	if exe, err := os.Executable(); err == nil {
+		if f, err := os.Open(exe); err == nil {
+			h := sha256.New()
+			if _, err := io.Copy(h, f); err == nil {
+				parts = append(parts, "executable sha256 "+hex.EncodeToString(h.Sum(nil))[:16])
+			}
+			f.Close()
+		}
+	}
+	return strings.Join(parts, " ")
+}
+
 // claimFolder writes the manifest into a new or empty folder, or checks it
 // against the manifest already there: a folder holds one sweep (one shard of
-// it) only.
-func claimFolder(dir string, m *Manifest) error {
+// it) only. It returns a warning when the folder was started by another
+// build of flame1d.
+func claimFolder(dir string, m *Manifest) (warning string, err error) {
 	old, err := ReadManifest(dir)
 	if errors.Is(err, errNoManifest) {
 		if entries, _ := os.ReadDir(dir); len(entries) > 0 {
-			return fmt.Errorf("%s is not empty and holds no sweep.json: give a new or empty folder for the sweep", dir)
+			return "", fmt.Errorf("%s is not empty and holds no sweep.json: give a new or empty folder for the sweep", dir)
 		}
-		return m.write(dir)
+		return "", m.write(dir)
 	}
 	if err != nil {
-		return err
+		return "", err
 	}
 	diffs := old.Definition.Differences(m.Definition)
 	if old.Shard != m.Shard {
@@ -217,11 +257,17 @@ func claimFolder(dir string, m *Manifest) error {
 		diffs = append(diffs, "the folder holds merged results, not a sweep run")
 	}
 	if len(diffs) > 0 {
-		return fmt.Errorf("%s holds a different sweep than this one (%s); use a new output folder, or restore the case as it was to continue that sweep",
+		return "", fmt.Errorf("%s holds a different sweep than this one (%s); use a new output folder, or restore the case as it was to continue that sweep",
 			dir, strings.Join(diffs, "; "))
 	}
-	if old.Title != m.Title {
-		return m.write(dir)
+	if old.Program != m.Program {
+		warning = fmt.Sprintf("%s was started by another build of flame1d (%s; this is %s): the points solved now may differ from an uninterrupted run in the last digits",
+			dir, old.Program, m.Program)
 	}
-	return nil
+	if old.Title != m.Title {
+		// Keep the first build's identity: the warning holds for every later run.
+		m.Program = old.Program
+		return warning, m.write(dir)
+	}
+	return warning, nil
 }

@@ -19,6 +19,8 @@ type MergeSummary struct {
 	Definition     Definition
 	ShardFolders   []string // by shard index
 	FailedIDs      []string
+	// Warnings are worth a look but did not stop the merge.
+	Warnings []string
 }
 
 // Merge joins the results of the shards of one sweep, each in its own
@@ -34,6 +36,7 @@ func Merge(dirs []string, out string) (*MergeSummary, error) {
 	}
 	var first *Manifest
 	byShard := map[int]string{}
+	manifests := map[int]*Manifest{}
 	for _, d := range dirs {
 		m, err := ReadManifest(d)
 		if err != nil {
@@ -57,6 +60,7 @@ func Merge(dirs []string, out string) (*MergeSummary, error) {
 			return nil, fmt.Errorf("merge: shard %v is given twice: %s and %s", m.Shard, prev, d)
 		}
 		byShard[m.Shard.Index] = d
+		manifests[m.Shard.Index] = m
 	}
 	plan, err := NewPlan(first.Definition)
 	if err != nil {
@@ -97,8 +101,19 @@ func Merge(dirs []string, out string) (*MergeSummary, error) {
 		}
 	}
 	sum := &MergeSummary{Out: out, Shards: n, Points: len(plan.Points), Definition: first.Definition}
+	programs := map[string][]string{}
 	for i := 0; i < n; i++ {
 		sum.ShardFolders = append(sum.ShardFolders, byShard[i])
+		p := manifests[i].Program
+		programs[p] = append(programs[p], fmt.Sprint(i))
+	}
+	if len(programs) > 1 {
+		var parts []string
+		for _, p := range sortedKeys(programs) {
+			parts = append(parts, fmt.Sprintf("shard(s) %s by %s", strings.Join(programs[p], ", "), p))
+		}
+		sum.Warnings = append(sum.Warnings, "the shards were solved by different builds of flame1d ("+strings.Join(parts, "; ")+
+			"): the merged table may differ from a single run in the last digits")
 	}
 	recs := make(map[int]*Record)
 	var missing []string

@@ -82,6 +82,7 @@ func speedPlot(v Variable, title string, values [3][]float64, plan *Plan, points
 	}
 	p.X.Label.Text = v.Label()
 	p.Y.Label.Text = "S_L [m/s]"
+	p.Y.Min = 0
 	p.Add(plotter.NewGrid())
 	drawn := false
 	for k, label := range order {

@@ -70,6 +70,8 @@ type Summary struct {
 	Attempted int
 	Failures  []*Record
 	WallTime  time.Duration
+	// Warnings are worth a look but did not stop the run.
+	Warnings []string
 }
 
 // ErrInterrupted is returned when the context is cancelled before the
@@ -102,8 +104,9 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", c.File, err)
 	}
-	m := &Manifest{Format: manifestFormat, Title: c.Title, Definition: def, Shard: shard, Note: output.SafetyNote}
-	if err := claimFolder(dir, m); err != nil {
+	m := &Manifest{Format: manifestFormat, Title: c.Title, Definition: def, Shard: shard, Program: ProgramIdentity(), Note: output.SafetyNote}
+	warning, err := claimFolder(dir, m)
+	if err != nil {
 		return nil, err
 	}
 	recs, err := readRecords(dir, plan, points)
@@ -128,6 +131,9 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 	attempted, runErr := r.schedule(ctx)
 	plotErr := writePlots(dir, c.Title, plan, points, r.recs)
 	s := &Summary{Dir: dir, Points: len(points), Reused: reused, Attempted: attempted, WallTime: time.Since(began)}
+	if warning != "" {
+		s.Warnings = append(s.Warnings, warning)
+	}
 	for _, i := range points {
 		switch rec := r.recs[i]; {
 		case rec == nil:

@@ -241,7 +241,7 @@ func TestWriteFailureStopsTheSweep(t *testing.T) {
 	dir := t.TempDir()
 	c := sweepCase(t, "equivalence_ratio = [0.8, 1.0, 1.2]")
 	opt, _ := fakeOptions(1, nil)
-	if err := claimFolder(dir, &Manifest{Format: manifestFormat, Definition: mustDefinition(t, c), Shard: Shard{0, 1}}); err != nil {
+	if _, err := claimFolder(dir, &Manifest{Format: manifestFormat, Definition: mustDefinition(t, c), Shard: Shard{0, 1}}); err != nil {
 		t.Fatal(err)
 	}
 	if err := os.WriteFile(filepath.Join(dir, pointsDir), []byte("in the way"), 0o644); err != nil {
@@ -250,5 +250,29 @@ func TestWriteFailureStopsTheSweep(t *testing.T) {
 	_, err := Run(context.Background(), c, dir, opt)
 	if err == nil || errors.Is(err, ErrInterrupted) || !strings.Contains(err.Error(), "sweep point") {
 		t.Errorf("error %v, want a write failure naming the point", err)
+	}
+}
+
+func TestAnotherBuildIsWarnedAbout(t *testing.T) {
+	dir := t.TempDir()
+	c := sweepCase(t, "equivalence_ratio = [0.8, 1.0, 1.2]")
+	opt, _ := fakeOptions(1, nil)
+	if s := runSweep(t, c, dir, opt); len(s.Warnings) != 0 {
+		t.Fatalf("fresh folder: warnings %q", s.Warnings)
+	}
+	m, err := ReadManifest(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if m.Program != ProgramIdentity() || !strings.Contains(m.Program, "executable sha256") {
+		t.Errorf("manifest program %q, this is %q", m.Program, ProgramIdentity())
+	}
+	m.Program = "flame1d v0.0.1 revision 0123abc"
+	if err := m.write(dir); err != nil {
+		t.Fatal(err)
+	}
+	s := runSweep(t, c, dir, opt)
+	if len(s.Warnings) != 1 || !strings.Contains(s.Warnings[0], "another build") || !strings.Contains(s.Warnings[0], "v0.0.1") {
+		t.Errorf("warnings %q, want one about the other build", s.Warnings)
 	}
 }

@@ -37,6 +37,9 @@ stay in the shard folders (points/<id>/).
 			for i, d := range sum.ShardFolders {
 				fmt.Fprintf(w, "  shard %d/%d  %s\n", i, sum.Shards, d)
 			}
+			for _, m := range sum.Warnings {
+				fmt.Fprintf(w, "warning: %s\n", m)
+			}
 			fmt.Fprintf(w, "results in %s\n", filepath.Join(outDir, sweep.ResultsName))
 			fmt.Fprintln(w, output.SafetyNote)
 			return nil

@@ -89,6 +89,9 @@ A progress bar goes to stderr when it is a terminal (silence it with -q).
 				opt.Progress = progressBar(stderr)
 			}
 			sum, err := sweep.Run(ctx, c, outDir, opt)
+			if opt.Progress != nil && (sum == nil || sum.Pending > 0) {
+				fmt.Fprintln(stderr) // leave the unfinished bar's line
+			}
 			if sum != nil {
 				printSweepSummary(cmd.OutOrStdout(), sum, shard)
 			}
@@ -175,6 +178,9 @@ func printSweepSummary(w io.Writer, s *sweep.Summary, shard sweep.Shard) {
 		}
 		tw.Flush()
 		fmt.Fprintf(w, "  (full reasons in %s and points/<id>/point.json)\n", sweep.ResultsName)
+	}
+	for _, m := range s.Warnings {
+		fmt.Fprintf(w, "warning: %s\n", m)
 	}
 	fmt.Fprintf(w, "results in %s\n", filepath.Join(s.Dir, sweep.ResultsName))
 	fmt.Fprintln(w, output.SafetyNote)
