@@ -56,9 +56,7 @@ type Progress struct {
 func DefaultSettings() Settings {
 	c := grid.DefaultCriteria()
 	c.Slope, c.Curve, c.Ratio = 0.05, 0.07, 2.5
-	if c.MaxPoints == 0 {
-		c.MaxPoints = 1500
-	}
+	c.MaxPoints = 1500
 	c.MinRange = 1e-6
 	return Settings{
 		Grid: c, InitialPoints: 40, AnchorRise: 400, ThermalDiffusion: true,

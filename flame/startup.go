@@ -13,16 +13,12 @@ type equilibriumState struct {
 // adiabaticEquilibrium returns the complete-equilibrium products of the inlet
 // at constant enthalpy and pressure over all mechanism species.
 func adiabaticEquilibrium(ph *physics, in Inlet) (equilibriumState, error) {
-	set, err := ph.speciesSet()
-	if err != nil {
-		return equilibriumState{}, err
-	}
 	K := ph.nSpecies
 	moles := make([]float64, K)
 	for k := 0; k < K; k++ {
 		moles[k] = in.Y[k] * ph.invW[k]
 	}
-	res, err := set.AdiabaticFlame(in.T, in.P, moles, thermo.EquilibriumOptions{})
+	res, err := ph.set.AdiabaticFlame(in.T, in.P, moles, thermo.EquilibriumOptions{})
 	if err != nil {
 		return equilibriumState{}, err
 	}
