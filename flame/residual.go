@@ -25,7 +25,6 @@ type physics struct {
 	set       *thermo.SpeciesSet
 }
 
-
 func newPhysics(m *chem.Mechanism, tr *transport.Model) (*physics, error) {
 	kin, err := chem.NewKinetics(m)
 	if err != nil {
