@@ -183,8 +183,8 @@ func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, e
 	if err := s.checkInlet(in); err != nil {
 		return nil, err
 	}
-	if prev.Mechanism != s.ph.mech {
-		return nil, fmt.Errorf("restart solution belongs to a different mechanism")
+	if err := s.compatible(prev); err != nil {
+		return nil, err
 	}
 	eq, err := adiabaticEquilibrium(s.ph, in)
 	if err != nil {
@@ -200,6 +200,29 @@ func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, e
 	}
 	return sol, err
 }
+
+// compatible checks that a previous solution has this solver's species, in
+// order (ReadRestart maps files from other mechanisms onto this one).
+func (s *Solver) compatible(prev *Solution) error {
+	m := s.ph.mech
+	if prev.Mechanism == m {
+		return nil
+	}
+	if len(prev.Mechanism.Species) != len(m.Species) {
+		return fmt.Errorf("restart solution has %d species, mechanism %s has %d; read it with ReadRestart onto this mechanism",
+			len(prev.Mechanism.Species), m.Name, len(m.Species))
+	}
+	for k := range m.Species {
+		if prev.Mechanism.Species[k].Name != m.Species[k].Name {
+			return fmt.Errorf("restart solution species %d is %s, mechanism %s has %s there",
+				k+1, prev.Mechanism.Species[k].Name, m.Name, m.Species[k].Name)
+		}
+	}
+	return nil
+}
+
+// Mechanism returns the mechanism the solver burns.
+func (s *Solver) Mechanism() *chem.Mechanism { return s.ph.mech }
 
 func (s *Solver) checkInlet(in Inlet) error {
 	K := s.ph.nSpecies

@@ -233,7 +233,20 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum}, nil
 }
 
-// WriteFlame writes profile.csv, summary.txt and summary.json into dir. Each
+// ReadRestart reads a restart file written by WriteFlame onto the study's
+// mechanism, for Solve's start argument.
+func (s *Study) ReadRestart(path string) (*flame.Solution, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, fmt.Errorf("restart: %w", err)
+	}
+	defer f.Close()
+	return flame.ReadRestart(f, path, s.Mechanism)
+}
+
+// WriteFlame writes profile.csv, zones.csv, restart.csv (the state to
+// continue from with `flame1d run --restart`), summary.txt and summary.json
+// into dir. Each
 // file is atomic; summary.json is written last, so its presence marks a
 // complete set.
 func WriteFlame(dir string, r *Result) error {
@@ -254,6 +267,9 @@ func WriteFlame(dir string, r *Result) error {
 		if err != nil {
 			return err
 		}
+	}
+	if err := output.WriteFileAtomic(filepath.Join(dir, "restart.csv"), r.Solution.WriteRestart); err != nil {
+		return err
 	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, "summary.txt"), r.Summary.WriteText); err != nil {
 		return err

@@ -11,6 +11,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"flame1d/casefile"
+	"flame1d/flame"
 	"flame1d/output"
 	"flame1d/study"
 )
@@ -20,10 +21,11 @@ var demoCase []byte
 
 func newRunCmd() *cobra.Command {
 	var (
-		outDir string
-		asJSON bool
-		quiet  bool
-		demo   bool
+		outDir  string
+		asJSON  bool
+		quiet   bool
+		demo    bool
+		restart string
 	)
 	cmd := &cobra.Command{
 		Use:   "run [CASE.toml]",
@@ -34,6 +36,8 @@ file and write its profiles and summary.
 Writes into the output folder (-o, or [output] directory in the case, or a
 folder named after the case file):
   profile.csv    x, T, u, rho, heat-release rate and all mole fractions
+  zones.csv      pyrolysis and oxidation zones, pool-species and radical peaks
+  restart.csv    the full state, to start another run from (--restart)
   summary.json   flame speed, burned and adiabatic temperature, thickness, ...
   summary.txt    the same, for people
 
@@ -43,7 +47,8 @@ and writes nothing.
 ` + output.SafetyNote,
 		Example: `  flame1d run --demo
   flame1d run examples/methane-air.toml -o out/ch4
-  flame1d run case.toml --json -q > summary.json`,
+  flame1d run case.toml --json -q > summary.json
+  flame1d run lean.toml --restart flame1d-demo/restart.csv`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			var c *casefile.Case
@@ -76,7 +81,13 @@ and writes nothing.
 			if err != nil {
 				return err
 			}
-			res, err := st.Solve(st.BaseCondition(), nil)
+			var start *flame.Solution
+			if restart != "" {
+				if start, err = st.ReadRestart(restart); err != nil {
+					return err
+				}
+			}
+			res, err := st.Solve(st.BaseCondition(), start)
 			if err != nil {
 				return err
 			}
@@ -97,5 +108,6 @@ and writes nothing.
 	cmd.Flags().BoolVar(&asJSON, "json", false, "print the summary as JSON on stdout")
 	cmd.Flags().BoolVarP(&quiet, "quiet", "q", false, "no progress messages on stderr")
 	cmd.Flags().BoolVar(&demo, "demo", false, "solve the built-in stoichiometric methane/air case")
+	cmd.Flags().StringVar(&restart, "restart", "", "start from a solved flame's restart.csv (continuation to this case's conditions)")
 	return cmd
 }
