@@ -173,7 +173,22 @@ type kineticsModel struct {
 	// slots, padded with species index nsp (a constant 1 in the extended
 	// concentration vector).
 	mass []massAction
-	kcs  []kcProduct
+
+	// Per-T work lists. kcRx: reversible steps without explicit reverse
+	// (1/Kc needed), with kcs parallel to it. arrRx: Elementary and
+	// ThreeBody steps whose k is not a constant, with their Arrhenius
+	// parameters in parallel slices (constants are stored once in newWork).
+	// simpleKcRx: the Elementary and ThreeBody members of kcRx. explRx:
+	// steps with an explicit reverse rate.
+	kcRx       []int32
+	kcs        []kcProduct
+	arrRx      []int32
+	arrLnA     []float64
+	arrB       []float64
+	arrER      []float64
+	arrSign    []float64
+	simpleKcRx []int32
+	explRx     []int32
 
 	// The net stoichiometry by species (transpose of nus): species k has
 	// entries [bySpBeg[k], bySpBeg[k+1]) of (reaction, nu), reactions
@@ -225,6 +240,7 @@ type kineticsWork struct {
 	phi, dphi []float64 // Chebyshev polynomial scratch
 	ctot, lnP float64
 	thirdBody []float64 // [M] per set
+	lgM       []float64 // log10 [M] per set (-Inf for [M] <= 0)
 	kf, kr    []float64 // rate constants at (T, C); those of pdep reactions set per call
 	dkfdT     []float64 // total derivatives at constant C
 	dkrdT     []float64
@@ -290,9 +306,7 @@ func NewKinetics(m *Mechanism) (*Kinetics, error) {
 		if err := km.addReaction(&m.Reactions[i], &km.rx[i]); err != nil {
 			return nil, fmt.Errorf("kinetics: reaction %d (%s): %w", i+1, m.Reactions[i].Equation, err)
 		}
-		if f := km.rx[i].form; f != Elementary && f != ThreeBody {
-			km.pdep = append(km.pdep, int32(i))
-		}
+		km.addToLists(int32(i))
 	}
 	km.indexBySpecies()
 	k := &Kinetics{m: km}
@@ -315,7 +329,7 @@ func (k *Kinetics) NumReactions() int { return len(k.m.rx) }
 func (km *kineticsModel) newWork() kineticsWork {
 	n, K := len(km.rx), km.nsp
 	f := func(n int) []float64 { return make([]float64, n) }
-	return kineticsWork{
+	w := kineticsWork{
 		lastT: math.NaN(), derivT: math.NaN(),
 		gRT: f(K), hRT: f(K), gPow: f(4*K + 1),
 		invKc: f(n), dlnKcdT: f(n),
@@ -324,8 +338,8 @@ func (km *kineticsModel) newWork() kineticsWork {
 		chebA:     f(2 * km.chebCache),
 		phi:       f(km.maxChebLen),
 		dphi:      f(km.maxChebLen),
-		thirdBody: f(km.ntb),
-		cx:        f(K + 1), mult: f(km.ntb + 1),
+		thirdBody: f(km.ntb), lgM: f(km.ntb),
+		cx: f(K + 1), mult: f(km.ntb + 1),
 		kf: f(n), kr: f(n), dkfdT: f(n), dkrdT: f(n), dkfdX: f(n),
 		facVal: f(len(km.facs)),
 		fwd:    f(n), rev: f(n), net: f(n),
@@ -333,6 +347,12 @@ func (km *kineticsModel) newWork() kineticsWork {
 		sparseSp:  make([]int32, km.maxSparse),
 		sparseVal: f(km.maxSparse),
 	}
+	for i := range km.rx { // constant rate constants, never recomputed
+		if r := &km.rx[i]; (r.form == Elementary || r.form == ThreeBody) && r.rate.constant {
+			w.kf[i] = r.rate.a
+		}
+	}
+	return w
 }
 
 // checkLen panics on a programming error: a slice shorter than the model
@@ -449,6 +469,11 @@ func (k *Kinetics) update(T float64, C []float64, derivs bool) {
 			s += eff[j] * c
 		}
 		w.thirdBody[t] = s
+		if s > 0 {
+			w.lgM[t] = math.Log10(s)
+		} else {
+			w.lgM[t] = math.Inf(-1)
+		}
 	}
 	for _, i := range m.pdep {
 		r := &m.rx[i]
@@ -509,25 +534,27 @@ func (k *Kinetics) temperatureValues(T float64) {
 	lnStd := lnStdOverR - lnT
 	rt := thermo.GasConstant * T / thermo.StandardPressure
 	w.stdPow = [5]float64{1 / (rt * rt), 1 / rt, 1, rt, rt * rt}
-	for i := range m.rx {
-		r := &m.rx[i]
-		if r.reverse == reverseFromKc {
-			w.invKc[i] = k.inverseKc(i, gmax, lnStd)
+	for j, i := range m.arrRx {
+		w.kf[i] = m.arrSign[j] * math.Exp(m.arrLnA[j]+m.arrB[j]*lnT-m.arrER[j]*invT)
+	}
+	// 1/Kc = exp(sum nu g/RT) (RT/P°)^Δν as a product of the cached
+	// species factors where no partial product can leave the float range:
+	// |ln| of every partial product <= sum|nu| max|g/RT| + 2 |ln(P°/RT)|.
+	bound := maxExpArg - 2*math.Abs(lnStd)
+	g := w.gPow
+	for j, i := range m.kcRx {
+		kp := &m.kcs[j]
+		if kp.usable && kp.nuAbs*gmax < bound {
+			w.invKc[i] = w.stdPow[kp.std] * g[kp.idx[0]] * g[kp.idx[1]] * g[kp.idx[2]] * g[kp.idx[3]]
+		} else {
+			w.invKc[i] = k.inverseKcByExp(int(i), lnStd)
 		}
-		switch r.form {
-		case Elementary, ThreeBody:
-			kf := r.rate.value(lnT, invT)
-			w.kf[i], w.dkfdX[i] = kf, 0
-			if r.reverse == reverseFromKc {
-				w.kr[i] = kf * w.invKc[i]
-			}
-		}
-		switch r.reverse {
-		case reverseExplicit:
-			w.kr[i] = r.revRate.value(lnT, invT)
-		case irreversible:
-			w.kr[i], w.dkrdT[i] = 0, 0
-		}
+	}
+	for _, i := range m.simpleKcRx {
+		w.kr[i] = w.kf[i] * w.invKc[i]
+	}
+	for _, i := range m.explRx {
+		w.kr[i] = m.rx[i].revRate.value(lnT, invT)
 	}
 	for f := range m.falloffs {
 		m.falloffs[f].temperature(T, lnT, invT, w.foT[foStride*f:foStride*(f+1)])
@@ -556,26 +583,22 @@ func (k *Kinetics) temperatureValues(T float64) {
 func (k *Kinetics) temperatureDerivatives() {
 	m, w := k.m, &k.w
 	invT := w.invT
-	for i := range m.rx {
+	for _, i := range m.kcRx {
 		r := &m.rx[i]
-		if r.reverse == reverseFromKc {
-			sh := 0.0
-			for _, s := range m.nus[r.nuBeg:r.nuEnd] {
-				sh += s.nu * w.hRT[s.sp]
-			}
-			w.dlnKcdT[i] = (sh - r.dnu) * invT
+		sh := 0.0
+		for _, s := range m.nus[r.nuBeg:r.nuEnd] {
+			sh += s.nu * w.hRT[s.sp]
 		}
-		switch r.form {
-		case Elementary, ThreeBody:
-			dkf := w.kf[i] * r.rate.dlnkdT(invT)
-			w.dkfdT[i] = dkf
-			if r.reverse == reverseFromKc {
-				w.dkrdT[i] = dkf*w.invKc[i] - w.kr[i]*w.dlnKcdT[i]
-			}
-		}
-		if r.reverse == reverseExplicit {
-			w.dkrdT[i] = w.kr[i] * r.revRate.dlnkdT(invT)
-		}
+		w.dlnKcdT[i] = (sh - r.dnu) * invT
+	}
+	for j, i := range m.arrRx {
+		w.dkfdT[i] = w.kf[i] * (m.arrB[j] + m.arrER[j]*invT) * invT
+	}
+	for _, i := range m.simpleKcRx {
+		w.dkrdT[i] = w.dkfdT[i]*w.invKc[i] - w.kr[i]*w.dlnKcdT[i]
+	}
+	for _, i := range m.explRx {
+		w.dkrdT[i] = w.kr[i] * m.rx[i].revRate.dlnkdT(invT)
 	}
 	w.derivT = w.lastT
 }
@@ -590,19 +613,12 @@ type kcProduct struct {
 	usable bool    // at most 4 net species, |nu| <= 2, |Δν| <= 2
 }
 
-// inverseKc returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν for reaction i,
-// limited to [e^-maxExpArg, e^maxExpArg]. Where the reaction allows it, the
-// cached species factors are multiplied (no exponential); that is exact to
-// round-off when no partial product can leave the float range, which the
-// bound sum|nu| max|g/RT| + 2 |ln(P°/RT)| < maxExpArg guarantees.
-// Otherwise one exponential of the summed logarithm.
-func (k *Kinetics) inverseKc(i int, gmax, lnStd float64) float64 {
+// inverseKcByExp returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν for reaction
+// i through one exponential of the summed logarithm, limited to
+// [e^-maxExpArg, e^maxExpArg]: the path for non-integer or large
+// coefficients and for extreme g/RT.
+func (k *Kinetics) inverseKcByExp(i int, lnStd float64) float64 {
 	m, w := k.m, &k.w
-	kp := &m.kcs[i]
-	if kp.usable && kp.nuAbs*gmax+2*math.Abs(lnStd) < maxExpArg {
-		g := w.gPow
-		return w.stdPow[kp.std] * g[kp.idx[0]] * g[kp.idx[1]] * g[kp.idx[2]] * g[kp.idx[3]]
-	}
 	r := &m.rx[i]
 	sg := 0.0
 	for _, s := range m.nus[r.nuBeg:r.nuEnd] {

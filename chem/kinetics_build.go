@@ -115,7 +115,34 @@ func (km *kineticsModel) addCompact(d *reactionData) {
 	if !kp.usable {
 		kp.std = 2
 	}
-	km.kcs = append(km.kcs, kp)
+	if d.reverse == reverseFromKc {
+		km.kcs = append(km.kcs, kp)
+	}
+}
+
+// addToLists enters reaction i into the per-T and per-call work lists.
+func (km *kineticsModel) addToLists(i int32) {
+	d := &km.rx[i]
+	simple := d.form == Elementary || d.form == ThreeBody
+	if !simple {
+		km.pdep = append(km.pdep, i)
+	}
+	if simple && !d.rate.constant {
+		km.arrRx = append(km.arrRx, i)
+		km.arrLnA = append(km.arrLnA, d.rate.lnA)
+		km.arrB = append(km.arrB, d.rate.b)
+		km.arrER = append(km.arrER, d.rate.eR)
+		km.arrSign = append(km.arrSign, d.rate.sign)
+	}
+	switch d.reverse {
+	case reverseFromKc:
+		km.kcRx = append(km.kcRx, i)
+		if simple {
+			km.simpleKcRx = append(km.simpleKcRx, i)
+		}
+	case reverseExplicit:
+		km.explRx = append(km.explRx, i)
+	}
 }
 
 // addFactors appends the concentration factors of one side: each species'

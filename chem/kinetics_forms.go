@@ -8,9 +8,10 @@ import "math"
 // forms, dkf/d ln P for pressure tables and Chebyshev series.
 
 // foStride is the number of cached per-T values of one falloff reaction:
-// k0, k_inf, k0/k_inf, d ln k0/dT, d ln k_inf/dT, and the broadening's
-// T part with its derivative (log10 Fcent for Troe, ln of the SRI base).
-const foStride = 7
+// k0, k_inf, k0/k_inf, d ln k0/dT, d ln k_inf/dT, the broadening's T part
+// with its derivative (log10 Fcent for Troe, ln of the SRI base), and
+// log10(k0/k_inf).
+const foStride = 8
 
 // temperature fills the falloff's per-T cache c.
 func (fo *falloffData) temperature(T, lnT, invT float64, c []float64) {
@@ -24,6 +25,7 @@ func (fo *falloffData) temperature(T, lnT, invT float64, c []float64) {
 	}
 	c[3] = fo.low.dlnkdT(invT)
 	c[4] = fo.high.dlnkdT(invT)
+	c[7] = (l0 - lInf) / math.Ln10
 	switch fo.kind {
 	case troeForm:
 		c[5], c[6] = fo.troeCenter(T, invT)
@@ -141,7 +143,9 @@ func (k *Kinetics) falloffRate(i int, r *reactionData) {
 	}
 	Pr := math.Min(ratio*M, 1e300)
 	active := Pr >= prFloor
-	x := math.Log10(math.Max(Pr, prFloor))
+	// log10 Pr from the cached logarithms of k0/k_inf and [M] (one log per
+	// collider set, not per reaction).
+	x := math.Max(math.Log10(prFloor), math.Min(300, c[7]+w.lgM[r.thirdBdy]))
 	lnF, dlnFdlnPr, dlnFdT := fo.broadening(x, c, w.lnT, w.invT)
 	if !active {
 		dlnFdlnPr = 0
