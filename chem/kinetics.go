@@ -202,8 +202,9 @@ type kineticsModel struct {
 	// distinct third-body set: set t at [t*nsp, (t+1)*nsp). Dense, so that
 	// [M] = sum_k eff_k C_k is a sum of non-negative terms (no cancellation
 	// when a zero-efficiency species dominates).
-	tbEff []float64
-	ntb   int
+	tbEff      []float64
+	ntb        int
+	tbNeedsLog []bool // set t is the collider of a falloff step: log10 [M] is needed
 
 	// pdep lists the reactions whose rate constant depends on C (falloff)
 	// or P (tables, Chebyshev); the others are complete after the per-T stage.
@@ -231,6 +232,7 @@ type kineticsWork struct {
 	lnT, invT float64
 	gRT, hRT  []float64
 	gPow      []float64 // per species exp(g/RT), exp(-g/RT), exp(2g/RT), exp(-2g/RT); then 1
+	absG      []float64 // |g/RT| per species; then 0
 	stdPow    [5]float64
 	invKc     []float64 // 1/Kc of reversible steps without explicit reverse
 	dlnKcdT   []float64 // d ln Kc/dT, same steps
@@ -331,7 +333,7 @@ func (km *kineticsModel) newWork() kineticsWork {
 	f := func(n int) []float64 { return make([]float64, n) }
 	w := kineticsWork{
 		lastT: math.NaN(), derivT: math.NaN(),
-		gRT: f(K), hRT: f(K), gPow: f(4*K + 1),
+		gRT: f(K), hRT: f(K), gPow: f(4*K + 1), absG: f(K + 1),
 		invKc: f(n), dlnKcdT: f(n),
 		foT:       f(foStride * len(km.falloffs)),
 		lvlK:      f(3 * len(km.lvlLnP)),
@@ -469,9 +471,11 @@ func (k *Kinetics) update(T float64, C []float64, derivs bool) {
 			s += eff[j] * c
 		}
 		w.thirdBody[t] = s
-		if s > 0 {
+		switch {
+		case !m.tbNeedsLog[t]:
+		case s > 0:
 			w.lgM[t] = math.Log10(s)
-		} else {
+		default:
 			w.lgM[t] = math.Inf(-1)
 		}
 	}
@@ -515,14 +519,13 @@ func (k *Kinetics) temperatureValues(T float64) {
 	m, w := k.m, &k.w
 	lnT, invT := math.Log(T), 1/T
 	w.lnT, w.invT = lnT, invT
-	gmax := 0.0
 	K := m.nsp
 	for i := range m.thermo {
 		p := &m.thermo[i]
 		h := p.HRT(T)
 		g := h - p.SR(T) // = p.GRT(T), without evaluating h twice
 		w.hRT[i], w.gRT[i] = h, g
-		gmax = math.Max(gmax, math.Abs(g))
+		w.absG[i] = math.Abs(g)
 		up, down := math.Exp(g), 0.0
 		if up != 0 {
 			down = 1 / up
@@ -539,12 +542,13 @@ func (k *Kinetics) temperatureValues(T float64) {
 	}
 	// 1/Kc = exp(sum nu g/RT) (RT/P°)^Δν as a product of the cached
 	// species factors where no partial product can leave the float range:
-	// |ln| of every partial product <= sum|nu| max|g/RT| + 2 |ln(P°/RT)|.
+	// |ln| of every partial product <= sum |nu g/RT| + 2 |ln(P°/RT)|.
 	bound := maxExpArg - 2*math.Abs(lnStd)
-	g := w.gPow
+	g, a := w.gPow, w.absG
 	for j, i := range m.kcRx {
 		kp := &m.kcs[j]
-		if kp.usable && kp.nuAbs*gmax < bound {
+		size := kp.nuA[0]*a[kp.sp[0]] + kp.nuA[1]*a[kp.sp[1]] + kp.nuA[2]*a[kp.sp[2]] + kp.nuA[3]*a[kp.sp[3]]
+		if kp.usable && size < bound {
 			w.invKc[i] = w.stdPow[kp.std] * g[kp.idx[0]] * g[kp.idx[1]] * g[kp.idx[2]] * g[kp.idx[3]]
 		} else {
 			w.invKc[i] = k.inverseKcByExp(int(i), lnStd)
@@ -609,8 +613,9 @@ func (k *Kinetics) temperatureDerivatives() {
 type kcProduct struct {
 	idx    [4]int32
 	std    int32
-	nuAbs  float64 // sum |nu|
-	usable bool    // at most 4 net species, |nu| <= 2, |Δν| <= 2
+	sp     [4]int32   // the species (padding: nsp, where absG is 0)
+	nuA    [4]float64 // their |nu|
+	usable bool       // at most 4 net species, |nu| <= 2, |Δν| <= 2
 }
 
 // inverseKcByExp returns 1/Kc = exp(sum nu g/RT) (R T/P°)^Δν for reaction

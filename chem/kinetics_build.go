@@ -100,14 +100,14 @@ func (km *kineticsModel) addCompact(d *reactionData) {
 
 	nus := km.nus[d.nuBeg:d.nuEnd]
 	one := int32(4 * km.nsp)
-	kp := kcProduct{idx: [4]int32{one, one, one, one}, std: int32(d.dnu) + 2,
+	kp := kcProduct{idx: [4]int32{one, one, one, one}, std: int32(d.dnu) + 2, sp: [4]int32{pad, pad, pad, pad},
 		usable: len(nus) <= 4 && d.dnu == math.Trunc(d.dnu) && math.Abs(d.dnu) <= 2}
 	code := map[float64]int32{1: 0, -1: 1, 2: 2, -2: 3} // gPow slot of exp(nu g/RT)
 	for n, st := range nus {
-		kp.nuAbs += math.Abs(st.nu)
 		if n >= 4 {
-			continue
+			break
 		}
+		kp.sp[n], kp.nuA[n] = st.sp, math.Abs(st.nu)
 		c, ok := code[st.nu]
 		kp.usable = kp.usable && ok
 		kp.idx[n] = 4*st.sp + c
@@ -126,6 +126,9 @@ func (km *kineticsModel) addToLists(i int32) {
 	simple := d.form == Elementary || d.form == ThreeBody
 	if !simple {
 		km.pdep = append(km.pdep, i)
+	}
+	if d.form == Falloff || d.form == ChemicallyActivated {
+		km.tbNeedsLog[d.thirdBdy] = true
 	}
 	if simple && !d.rate.constant {
 		km.arrRx = append(km.arrRx, i)
@@ -246,6 +249,7 @@ next:
 		return int32(t), nil
 	}
 	km.tbEff = append(km.tbEff, eff...)
+	km.tbNeedsLog = append(km.tbNeedsLog, false)
 	km.ntb++
 	return int32(km.ntb - 1), nil
 }

@@ -97,9 +97,10 @@ func randomState(rng *rand.Rand, K int, Tlo, Thi float64) (float64, []float64) {
 }
 
 // TestPublishedKfOverKrIsKc: for every reversible reaction of GRI-Mech 3.0
-// and the n-heptane set whose reverse comes from thermodynamics, kf/kr = Kc
-// (to round-off: kr is computed in logarithms, 1e-12 relative covers
-// ln Kc up to ~1e3 times the unit round-off).
+// and the n-heptane set whose reverse comes from thermodynamics, kf/kr = Kc,
+// with Kc from EquilibriumConstants (one exponential of ln Kc) and kr from
+// the rate path (mostly products of per-species factors): to round-off,
+// 1e-12 relative covering |ln Kc| up to ~1e3 times the unit round-off.
 func TestPublishedKfOverKrIsKc(t *testing.T) {
 	for _, set := range []string{"gri30", "nheptane-sk68"} {
 		m := publishedMechanism(t, set)
@@ -108,8 +109,13 @@ func TestPublishedKfOverKrIsKc(t *testing.T) {
 		kf, kr, Kc := make([]float64, N), make([]float64, N), make([]float64, N)
 		rng := rand.New(rand.NewPCG(1, 2))
 		checked := 0
-		for trial := 0; trial < 5; trial++ {
+		// Random states plus the ends of the range, where 1/Kc leaves the
+		// product-of-factors path for the exponential one (large |g/RT|).
+		for _, Tfix := range []float64{0, 0, 0, 0, 0, 250, 4000} {
 			T, C := randomState(rng, k.NumSpecies(), 300, 3000)
+			if Tfix > 0 {
+				T = Tfix
+			}
 			k.RateConstants(T, C, kf, kr)
 			k.EquilibriumConstants(T, Kc)
 			for i, r := range m.Reactions {
