@@ -37,7 +37,7 @@ import (
 //     is the reactant's stoichiometric coefficient unless Orders gives it;
 //     reverse likewise with the products and ReverseOrders. [M] is present
 //     only for the ThreeBody form.
-//   - Integer exponents are applied by repeated multiplication, so a slightly
+//   - Integer exponents up to 6 are applied by repeated multiplication, so a slightly
 //     negative concentration (a Newton iterate) gives a small, smooth, signed
 //     rate. For non-integer positive exponents, negative concentrations are
 //     clipped to 0 (C^a is not real for C < 0). Negative exponents use

@@ -298,9 +298,6 @@ func TestPublishedFinite(t *testing.T) {
 // n-heptane set at 1500 K. The temperatures avoid every species' NASA-7
 // midpoint, where dh/dT jumps.
 func TestPublishedJacobian(t *testing.T) {
-	if testing.Short() {
-		t.Skip("finite-difference Jacobian of published mechanisms skipped in -short mode")
-	}
 	for _, c := range []struct {
 		set string
 		T   float64

@@ -404,19 +404,23 @@ func TestChebyshevHandEvaluation(t *testing.T) {
 // Kp = Kc (RT/P°)^Δν with Δν = -1, with twice log10 Kf of H2O(g) from the
 // JANAF Tables, 4th ed. (Chase 1998), H2O(g): log Kf = 10.060 (1000 K), 3.540
 // (2000 K), 1.344 (3000 K) (from memory, via ΔfG° = -192.590, -135.528,
-// -77.163 kJ/mol). Tolerance 0.01 in log10 Kp: GRI polynomials against
-// JANAF are good to ~0.1 kJ/mol in g (0.005 in log K at 1000 K), and JANAF's
-// 1 bar standard state differs from flame1d's 1 atm by R T ln(1.01325) per
-// mole of gas, 0.003 in log10 Kp here.
+// -77.163 kJ/mol). Tolerance 0.015 in log10 Kp: JANAF's 1 bar standard
+// state against flame1d's 1 atm shifts log10 Kp by Δν log10(1.01325) =
+// -0.0057 here, and the GRI-Mech polynomials differ from JANAF by up to
+// ~0.3 kJ/mol in ΔfG°(H2O) near 3000 K (0.005 in log Kf per H2O, 0.01 for
+// two). Observed: -0.003 (1000 K), -0.0004 (2000 K), +0.009 (3000 K). A
+// wrong (P°/RT)^Δν factor would be off by more than 1.
 func TestEquilibriumConstantJANAF(t *testing.T) {
 	k := mustKinetics(t, handMechanism(rxn("2H2+O2=2H2O", chem.Elementary)))
 	Kc := make([]float64, 1)
 	for _, c := range []struct{ T, logKf float64 }{{1000, 10.060}, {2000, 3.540}, {3000, 1.344}} {
 		k.EquilibriumConstants(c.T, Kc)
 		logKp := math.Log10(Kc[0]) - math.Log10(thermo.GasConstant*c.T/thermo.StandardPressure)
-		if d := logKp - 2*c.logKf; math.Abs(d) > 0.01 {
+		d := logKp - 2*c.logKf
+		if math.Abs(d) > 0.015 {
 			t.Errorf("T = %g K: log10 Kp = %.4f, JANAF 2 log Kf = %.4f (diff %.4f)", c.T, logKp, 2*c.logKf, d)
 		}
+		t.Logf("T = %g K: log10 Kp = %.4f, JANAF %.4f", c.T, logKp, 2*c.logKf)
 	}
 }
 
@@ -432,9 +436,11 @@ func TestHeatReleaseFormationEnthalpy(t *testing.T) {
 	C := bath(T, thermo.OneAtmosphere, map[string]float64{"H2": 2, "O2": 1, "H2O": 0.5})
 	q := 1e3 * 2 * 2 * 1 // A [H2]^2 [O2]
 	want := 2 * 241826.0 * q
-	if got := k.HeatReleaseRate(T, C); relErr(got, want) > 2e-4 {
+	got := k.HeatReleaseRate(T, C)
+	if relErr(got, want) > 2e-4 {
 		t.Errorf("heat release %.6g W/m^3, want %.6g (2 x 241.826 kJ/mol x q)", got, want)
 	}
+	t.Logf("heat release %.7g W/m^3, CODATA-based %.7g (rel. %.2g)", got, want, relErr(got, want))
 }
 
 // TestDetailedBalanceHand: concentrations whose quotient equals Kc give zero
@@ -675,6 +681,7 @@ func TestHydrogenOxygenBranchingRate(t *testing.T) {
 		t.Errorf("k(2000 K) = %.4g m^3/(mol s), Baulch et al. 2005 %.4g: |Δlog k| = %.3f > 0.1", kf[0], baulch, d)
 	}
 	hong := 1.04e14 * 1e-6 * math.Exp(-15286*calorie/(thermo.GasConstant*T))
+	t.Logf("k(2000 K) = %.4g m^3/(mol s); Baulch 2005 %.4g, Hong 2011 %.4g", kf[0], baulch, hong)
 	if d := math.Abs(math.Log10(kf[0] / hong)); d > 0.1 {
 		t.Errorf("k(2000 K) = %.4g m^3/(mol s), Hong et al. 2011 %.4g: |Δlog k| = %.3f > 0.1", kf[0], hong, d)
 	}
