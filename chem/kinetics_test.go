@@ -943,3 +943,54 @@ func TestNewKineticsErrors(t *testing.T) {
 		t.Error("nil mechanism accepted")
 	}
 }
+
+// troeReference is the Troe falloff rate written directly from Gilbert,
+// Luther & Troe (1983), for the variants of TestTroeVariants; a term whose
+// T3 or T1 is 0 is dropped (flame1d's documented reading of a zero).
+func troeReference(lo, hi chem.Arrhenius, tr chem.Troe, T, M float64) float64 {
+	k0, kInf := arrhenius(lo, T), arrhenius(hi, T)
+	Pr := k0 * M / kInf
+	fc := 0.0
+	if tr.T3 != 0 {
+		fc += (1 - tr.A) * math.Exp(-T/tr.T3)
+	}
+	if tr.T1 != 0 {
+		fc += tr.A * math.Exp(-T/tr.T1)
+	}
+	if tr.HasT2 {
+		fc += math.Exp(-tr.T2 / T)
+	}
+	L := math.Log10(fc)
+	c, n := -0.4-0.67*L, 0.75-1.27*L
+	f1 := (math.Log10(Pr) + c) / (n - 0.14*(math.Log10(Pr)+c))
+	return kInf * Pr / (1 + Pr) * math.Pow(10, L/(1+f1*f1))
+}
+
+// TestTroeVariants: the 3-parameter form (no T2 term), and T3 = 0 or T1 = 0
+// (term dropped), against troeReference at several pressures and
+// temperatures. Same formulas, different arithmetic: 1e-12.
+func TestTroeVariants(t *testing.T) {
+	base := griMethylRecombination(true)
+	variants := map[string]chem.Troe{
+		"4-parameter": *base.FalloffRate.Troe,
+		"3-parameter": {A: 0.7830, T3: 74, T1: 2941},
+		"T3 = 0":      {A: 0.7830, T3: 0, T1: 2941, T2: 6964, HasT2: true},
+		"T1 = 0":      {A: 0.7830, T3: 74, T1: 0, T2: 6964, HasT2: true},
+	}
+	for name, tr := range variants {
+		r := griMethylRecombination(true)
+		trc := tr
+		r.FalloffRate.Troe = &trc
+		k := mustKinetics(t, handMechanism(r))
+		for _, T := range []float64{500, 1200, 2400} {
+			for _, P := range []float64{1e3, 1e5, 1e7} {
+				C := bath(T, P, nil)
+				kf, _ := rateConstants(k, T, C)
+				want := troeReference(r.FalloffRate.Low, r.FalloffRate.High, tr, T, C[hIdx("N2")])
+				if relErr(kf[0], want) > 1e-12 {
+					t.Errorf("%s, T = %g K, P = %g Pa: k = %.14g, reference %.14g", name, T, P, kf[0], want)
+				}
+			}
+		}
+	}
+}
