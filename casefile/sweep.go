@@ -189,7 +189,7 @@ func (sv sweepVariable) scalar(v any) (float64, error) {
 	if math.IsNaN(f) || math.IsInf(f, 0) {
 		return 0, fmt.Errorf("%v is not a finite number", v)
 	}
-	return roundSignificant(f), nil
+	return RoundSignificant(f), nil
 }
 
 // expandRange reads { from, to, step } or { from, to, count [, spacing] }.
@@ -247,7 +247,7 @@ func (sv sweepVariable) expandRange(t map[string]any) ([]float64, error) {
 		}
 		out := make([]float64, 0, int(n)+1)
 		for i := 0; i <= int(n); i++ {
-			out = append(out, roundSignificant(from+float64(i)*step))
+			out = append(out, RoundSignificant(from+float64(i)*step))
 		}
 		return out, nil
 	}
@@ -271,9 +271,9 @@ func (sv sweepVariable) expandRange(t map[string]any) ([]float64, error) {
 	for i := range out {
 		f := float64(i) / float64(count-1)
 		if spacing == "log" {
-			out[i] = roundSignificant(from * math.Pow(to/from, f))
+			out[i] = RoundSignificant(from * math.Pow(to/from, f))
 		} else {
-			out[i] = roundSignificant(from + f*(to-from))
+			out[i] = RoundSignificant(from + f*(to-from))
 		}
 	}
 	return out, nil
@@ -326,10 +326,10 @@ func (sv sweepVariable) stepSize(v any) (float64, error) {
 	return step, nil
 }
 
-// roundSignificant rounds to 12 significant digits, so that ranges built by
+// RoundSignificant rounds to 12 significant digits, so that ranges built by
 // repeated addition give the values a person would write (0.6 + 7*0.1 is
 // 1.3, not 1.2999999999999998) and point names stay stable.
-func roundSignificant(v float64) float64 {
+func RoundSignificant(v float64) float64 {
 	r, err := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 12, 64), 64)
 	if err != nil {
 		return v

@@ -9,10 +9,13 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 	"sync/atomic"
 	"testing"
 
+	"flame1d/builtin"
 	"flame1d/casefile"
+	"flame1d/chem"
 	"flame1d/flame"
 	"flame1d/output"
 	"flame1d/study"
@@ -21,11 +24,27 @@ import (
 // fakeSolver stands in for the flame solver in tests of the sweep logic.
 // Its flame speed is a smooth function of the condition plus 1e-9 times the
 // equivalence ratio of the state it started from, so a point solved from a
-// different start than expected changes the results table.
+// different start than expected changes the results table. Its solutions
+// live on the h2o2 mechanism so that study.WriteFlame can write them; the
+// equivalence ratio is kept in AnchorX, which the restart file carries.
 type fakeSolver struct {
 	calls *atomic.Int64
+	mech  *chem.Mechanism
 	// fail, when non-nil, returns the error of a solve (nil: converge).
 	fail func(c study.Condition, start *flame.Solution) error
+	// hard, when non-nil, says a solve needed pseudo-time stepping.
+	hard func(c study.Condition, start *flame.Solution) bool
+}
+
+var fakeMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return builtin.Load("h2o2") })
+
+func (f *fakeSolver) ReadStart(dir string) (*flame.Solution, error) {
+	file, err := os.Open(filepath.Join(dir, restartName))
+	if err != nil {
+		return nil, err
+	}
+	defer file.Close()
+	return flame.ReadRestart(file, dir, f.mech)
 }
 
 func (f *fakeSolver) Solve(c study.Condition, start *flame.Solution) (*study.Result, bool, error) {
@@ -37,16 +56,33 @@ func (f *fakeSolver) Solve(c study.Condition, start *flame.Solution) (*study.Res
 	}
 	startPhi := 0.0
 	if start != nil {
-		startPhi = start.U[0]
+		startPhi = start.AnchorX
 	}
 	sl := fakeSpeed(c) + 1e-9*startPhi
-	sol := &flame.Solution{Inlet: flame.Inlet{T: c.T, P: c.P, Y: []float64{1}}, X: []float64{0, 0.01},
-		U: []float64{c.Phi, c.T, c.P, startPhi}, AnchorX: 0.002, AnchorT: c.T + 400, AdiabaticT: 2000 + 100*c.Phi, InitialLength: 0.01}
-	prof := &flame.Profile{Species: []string{"A"}, X: sol.X, T: []float64{c.T, 2000}, Velocity: []float64{sl, 5 * sl},
-		Density: []float64{1, 0.2}, HeatRelease: []float64{0, 0}, MoleFractions: [][]float64{{1}, {1}}}
+	K := len(f.mech.Species)
+	y := make([]float64, K)
+	y[0] = 1
+	temps := []float64{c.T, 800, 1800, 2000}
+	u := make([]float64, len(temps)*(K+2))
+	for j, T := range temps {
+		u[j*(K+2)] = T
+		copy(u[j*(K+2)+1:], y)
+		u[j*(K+2)+K+1] = sl
+	}
+	sol := &flame.Solution{Mechanism: f.mech, Inlet: flame.Inlet{T: c.T, P: c.P, Y: y}, X: []float64{0, 0.003, 0.006, 0.01},
+		U: u, AnchorX: c.Phi, AnchorT: c.T + 400, AdiabaticT: 2000 + 100*c.Phi, InitialLength: 0.01}
+	if f.hard != nil && f.hard(c, start) {
+		sol.Stats.TimeSteps = 10
+	}
+	var names []string
+	for _, sp := range f.mech.Species {
+		names = append(names, sp.Name)
+	}
+	prof := &flame.Profile{Species: names, X: sol.X, T: temps, Velocity: []float64{sl, 2 * sl, 4 * sl, 5 * sl},
+		Density: []float64{1, 0.5, 0.25, 0.2}, HeatRelease: []float64{0, 1e8, 1e7, 0}, MoleFractions: [][]float64{y, y, y, y}}
 	sum := &output.FlameSummary{Mechanism: "fake", EquivalenceRatio: c.Phi, UnburnedTemperatureK: c.T, PressurePa: c.P,
 		Converged: true, FlameSpeed: sl, BurnedTemperature: 1999 + 100*c.Phi, AdiabaticTemperature: 2000 + 100*c.Phi,
-		ThermalThickness: 4e-4, PeakHeatReleaseX: 0.002, GridPoints: 2, NewtonIterations: 7, Note: output.SafetyNote}
+		ThermalThickness: 4e-4, PeakHeatReleaseX: 0.002, GridPoints: 4, NewtonIterations: 7, Note: output.SafetyNote}
 	return &study.Result{Condition: c, Solution: sol, Profile: prof, Summary: sum}, start == nil, nil
 }
 
@@ -58,7 +94,10 @@ func fakeSpeed(c study.Condition) float64 {
 // fakeOptions returns options running the fake solver and its call counter.
 func fakeOptions(jobs int, fail func(study.Condition, *flame.Solution) error) (Options, *atomic.Int64) {
 	calls := &atomic.Int64{}
-	return Options{Jobs: jobs, NewSolver: func() (PointSolver, error) { return &fakeSolver{calls: calls, fail: fail}, nil }}, calls
+	return Options{Jobs: jobs, NewSolver: func() (PointSolver, error) {
+		m, err := fakeMechanism()
+		return &fakeSolver{calls: calls, mech: m, fail: fail}, err
+	}}, calls
 }
 
 // sweepCase parses a case on the built-in h2o2 mechanism with the given

@@ -1,7 +1,6 @@
 package sweep
 
 import (
-	"encoding/gob"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -11,7 +10,6 @@ import (
 	"os"
 	"path/filepath"
 
-	"flame1d/flame"
 	"flame1d/output"
 	"flame1d/study"
 )
@@ -50,8 +48,13 @@ type Record struct {
 	ThermalThickness     float64 `json:"thermal_thickness_m,omitempty"`
 	PeakHeatReleaseX     float64 `json:"peak_heat_release_position_m,omitempty"`
 	GridPoints           int     `json:"grid_points,omitempty"`
-	// NewtonIterations are those of the solve that succeeded.
+	// NewtonIterations are those of the attempt that succeeded, its
+	// intermediate steps included.
 	NewtonIterations int `json:"newton_iterations,omitempty"`
+	// NextStep is the continuation step this point's solve recommends for
+	// its neighbour, in the chain variable (ln P for pressure); 0 means
+	// the whole distance.
+	NextStep float64 `json:"next_step,omitempty"`
 	// WallTimeS is the time of all attempts, s.
 	WallTimeS float64 `json:"wall_time_s"`
 }
@@ -60,9 +63,13 @@ type Record struct {
 type Attempt struct {
 	// Start is the id of the neighbour the attempt continued from, or
 	// "cold".
-	Start     string  `json:"start"`
-	Error     string  `json:"error,omitempty"`
-	WallTimeS float64 `json:"wall_time_s"`
+	Start string `json:"start"`
+	// Intermediate are the values of the chain variable solved on the way
+	// from the start (see steps.go); they are not reported as points.
+	Intermediate     []float64 `json:"intermediate,omitempty"`
+	NewtonIterations int       `json:"newton_iterations,omitempty"`
+	Error            string    `json:"error,omitempty"`
+	WallTimeS        float64   `json:"wall_time_s"`
 }
 
 // Condition returns the record's condition.
@@ -91,14 +98,13 @@ func (r *Record) fill(res *study.Result) error {
 	}
 	r.FlameSpeed, r.BurnedTemperature, r.AdiabaticTemperature = s.FlameSpeed, s.BurnedTemperature, s.AdiabaticTemperature
 	r.ThermalThickness, r.PeakHeatReleaseX = s.ThermalThickness, s.PeakHeatReleaseX
-	r.GridPoints, r.NewtonIterations = s.GridPoints, s.NewtonIterations
+	r.GridPoints = s.GridPoints
 	return nil
 }
 
 const (
 	pointsDir  = "points"
 	recordName = "point.json"
-	stateName  = "state.gob"
 )
 
 func pointDir(dir, id string) string { return filepath.Join(dir, pointsDir, id) }
@@ -140,55 +146,4 @@ func readRecords(dir string, plan *Plan, points []int) (map[int]*Record, error) 
 		out[i] = &r
 	}
 	return out, nil
-}
-
-// savedState is a converged flame as written to state.gob: exactly the
-// numbers continuation starts from, so that a resumed sweep continues from
-// the same state as an uninterrupted one.
-type savedState struct {
-	Format        string
-	Species       []string
-	Inlet         flame.Inlet
-	X, U          []float64
-	AnchorX       float64
-	AnchorT       float64
-	AdiabaticT    float64
-	InitialLength float64
-}
-
-const stateFormat = "flame1d converged flame state, version 1"
-
-func writeState(dir, id string, sol *flame.Solution) error {
-	st := savedState{Format: stateFormat, Inlet: sol.Inlet, X: sol.X, U: sol.U,
-		AnchorX: sol.AnchorX, AnchorT: sol.AnchorT, AdiabaticT: sol.AdiabaticT, InitialLength: sol.InitialLength}
-	if sol.Mechanism != nil {
-		for _, s := range sol.Mechanism.Species {
-			st.Species = append(st.Species, s.Name)
-		}
-	}
-	return output.WriteFileAtomic(filepath.Join(pointDir(dir, id), stateName), func(w io.Writer) error {
-		return gob.NewEncoder(w).Encode(&st)
-	})
-}
-
-// readState reads a committed point's converged state. The solution has no
-// mechanism; the solver that continues from it binds its own (after checking
-// the species list).
-func readState(dir, id string) (*flame.Solution, []string, error) {
-	path := filepath.Join(pointDir(dir, id), stateName)
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, nil, fmt.Errorf("converged state of %s: %w", id, err)
-	}
-	defer f.Close()
-	var st savedState
-	if err := gob.NewDecoder(f).Decode(&st); err != nil {
-		return nil, nil, fmt.Errorf("%s: not a readable flame state: %w", path, err)
-	}
-	if st.Format != stateFormat {
-		return nil, nil, fmt.Errorf("%s: format %q, this flame1d reads %q", path, st.Format, stateFormat)
-	}
-	sol := &flame.Solution{Inlet: st.Inlet, X: st.X, U: st.U, AnchorX: st.AnchorX, AnchorT: st.AnchorT,
-		AdiabaticT: st.AdiabaticT, InitialLength: st.InitialLength}
-	return sol, st.Species, nil
 }

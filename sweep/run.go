@@ -19,14 +19,17 @@ import (
 )
 
 // PointSolver solves the flame at one condition. start, when non-nil, is
-// the converged state of a neighbour to continue from; its Mechanism is nil
-// (it may come from disk) and the solver binds its own. cold reports whether
-// a cold start was tried: on success, whether the result came from one.
+// the converged state of a neighbour to continue from, as ReadStart read
+// it. cold reports whether a cold start was tried: on success, whether the
+// result came from one.
 //
 // A PointSolver is used by one goroutine at a time; the sweep makes one per
 // worker.
 type PointSolver interface {
 	Solve(c study.Condition, start *flame.Solution) (res *study.Result, cold bool, err error)
+	// ReadStart reads the converged state that a committed point left in
+	// its folder.
+	ReadStart(pointDir string) (*flame.Solution, error)
 }
 
 // Options control a sweep run.
@@ -186,7 +189,13 @@ func (r *runner) writeResults() error {
 
 type task struct {
 	point  int
-	starts []string // ids of solved neighbours to continue from, nearest first
+	starts []startRef // solved neighbours to continue from, nearest first
+}
+
+// startRef is a solved neighbour and the step its solve recommends.
+type startRef struct {
+	point int
+	step  float64
 }
 
 type outcome struct {
@@ -300,14 +309,14 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 // startsFor lists the solved ancestors a point continues from, nearest
 // first. Ancestors are committed before their descendants are dispatched,
 // so the list depends only on the outcomes, never on timing.
-func (r *runner) startsFor(i int) []string {
+func (r *runner) startsFor(i int) []startRef {
 	if r.opt.ColdStarts {
 		return nil
 	}
-	var out []string
+	var out []startRef
 	for _, a := range r.plan.Ancestors(i) {
 		if rec := r.recs[a]; rec != nil && rec.Status == Solved {
-			out = append(out, rec.ID)
+			out = append(out, startRef{point: a, step: rec.NextStep})
 			if len(out) == maxNeighbourStarts {
 				break
 			}
@@ -334,47 +343,55 @@ func (r *runner) work(tasks <-chan task, done chan<- outcome) {
 	}
 }
 
-// solvePoint tries each start in turn, then a cold start if none was tried,
-// and commits the point. Only a failure to write is returned as an error;
-// a flame that does not converge is a failed record.
+// solvePoint tries each start in turn (walking to the point with the
+// start's recommended step), then a cold start if none was tried, and
+// commits the point. Only a failure to write is returned as an error; a
+// flame that does not converge is a failed record.
 func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 	pt := r.plan.Points[t.point]
 	began := time.Now()
 	rec := &Record{ID: pt.ID, EquivalenceRatio: pt.Condition.Phi, UnburnedTemperatureK: pt.Condition.T, PressurePa: pt.Condition.P}
 	var res *study.Result
 	triedCold := false
-	try := func(startID string, start *flame.Solution) {
-		t0 := time.Now()
-		out, cold, err := solver.Solve(pt.Condition, start)
-		triedCold = triedCold || cold
-		a := Attempt{Start: startID}
+	try := func(startID string, w walkResult, t0 time.Time) {
+		triedCold = triedCold || w.triedCold
+		a := Attempt{Start: startID, Intermediate: w.steps, NewtonIterations: w.iterations}
+		err := w.err
 		if err == nil {
-			if start != nil && cold {
+			if w.cold {
 				a.Start = ColdStart
 			}
-			err = rec.fill(out)
+			err = rec.fill(w.res)
 		}
 		a.WallTimeS = time.Since(t0).Seconds()
 		if err != nil {
 			a.Error = oneLine(err.Error())
 		} else {
-			res = out
-			rec.ContinuedFrom = a.Start
+			res = w.res
+			rec.ContinuedFrom, rec.NewtonIterations, rec.NextStep = a.Start, w.iterations, w.nextStep
 		}
 		rec.Attempts = append(rec.Attempts, a)
 	}
-	for _, id := range t.starts {
-		start, _, err := readState(r.dir, id)
+	for _, s := range t.starts {
+		t0 := time.Now()
+		from := r.plan.Points[s.point]
+		start, err := solver.ReadStart(pointDir(r.dir, from.ID))
 		if err != nil {
-			rec.Attempts = append(rec.Attempts, Attempt{Start: id, Error: oneLine(err.Error())})
+			rec.Attempts = append(rec.Attempts, Attempt{Start: from.ID, Error: oneLine(err.Error())})
 			continue
 		}
-		if try(id, start); res != nil {
+		if try(from.ID, walk(solver, r.plan.Along, pt.Condition, from.Condition, start, s.step), t0); res != nil {
 			break
 		}
 	}
 	if res == nil && !triedCold {
-		try(ColdStart, nil)
+		t0 := time.Now()
+		out, _, err := solver.Solve(pt.Condition, nil)
+		w := walkResult{res: out, cold: true, triedCold: true, err: err}
+		if err == nil {
+			w.iterations = out.Summary.NewtonIterations
+		}
+		try(ColdStart, w, t0)
 	}
 	rec.WallTimeS = time.Since(began).Seconds()
 	dir := pointDir(r.dir, pt.ID)
@@ -384,9 +401,6 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 	} else {
 		rec.Status = Solved
 		if err := study.WriteFlame(dir, res); err != nil {
-			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
-		}
-		if err := writeState(r.dir, pt.ID, res.Solution); err != nil {
 			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
 		}
 	}
@@ -455,19 +469,18 @@ func newStudySolver(c *casefile.Case, threads func() int) (*studySolver, error) 
 	return s, nil
 }
 
+// restartName is the converged-state file study.WriteFlame writes beside
+// every profile; continuation reads it back, so that a resumed sweep starts
+// each point from exactly the numbers an uninterrupted one does.
+const restartName = "restart.csv"
+
+func (s *studySolver) ReadStart(pointDir string) (*flame.Solution, error) {
+	return s.st.ReadRestart(filepath.Join(pointDir, restartName))
+}
+
 func (s *studySolver) Solve(c study.Condition, start *flame.Solution) (*study.Result, bool, error) {
 	if s.threads != nil && s.st.Case.Solver.Workers == 0 {
 		s.st.Settings.Workers = s.threads()
-	}
-	if start != nil {
-		K := len(s.st.Mechanism.Species)
-		if len(start.U) != len(start.X)*(K+2) {
-			return nil, false, fmt.Errorf("the neighbour's saved state has %d unknowns on %d points, not %d species + 2 per point: it belongs to another mechanism",
-				len(start.U), len(start.X), K)
-		}
-		bound := *start
-		bound.Mechanism = s.st.Mechanism
-		start = &bound
 	}
 	s.sawCold = false
 	res, err := s.st.Solve(c, start)

@@ -3,9 +3,12 @@ package sweep
 import (
 	"context"
 	"errors"
+	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
+	"sync/atomic"
 	"testing"
 
 	"flame1d/flame"
@@ -37,7 +40,7 @@ func TestRunWritesEveryPoint(t *testing.T) {
 		if d := r.FlameSpeed - fakeSpeed(r.Condition); d < 0 || d > 2e-9 {
 			t.Errorf("%s: S_L %v, fake gives %v", r.ID, r.FlameSpeed, fakeSpeed(r.Condition))
 		}
-		for _, f := range []string{"profile.csv", "summary.txt", "summary.json", stateName, recordName} {
+		for _, f := range []string{"profile.csv", "summary.txt", "summary.json", restartName, recordName} {
 			if _, err := os.Stat(filepath.Join(pointDir(dir, r.ID), f)); err != nil {
 				t.Errorf("%s: %v", r.ID, err)
 			}
@@ -275,4 +278,85 @@ func TestAnotherBuildIsWarnedAbout(t *testing.T) {
 	if len(s.Warnings) != 1 || !strings.Contains(s.Warnings[0], "another build") || !strings.Contains(s.Warnings[0], "v0.0.1") {
 		t.Errorf("warnings %q, want one about the other build", s.Warnings)
 	}
+}
+
+// jump is the change of equivalence ratio from a fake solve's start.
+func jump(c study.Condition, start *flame.Solution) float64 {
+	if start == nil {
+		return 0
+	}
+	return math.Abs(c.Phi - start.AnchorX)
+}
+
+func TestStepControl(t *testing.T) {
+	// Steps above 0.15 need pseudo-time stepping; above 0.25 they fail.
+	hard := func(c study.Condition, s *flame.Solution) bool { return jump(c, s) > 0.15+1e-9 }
+	fail := func(c study.Condition, s *flame.Solution) error {
+		if jump(c, s) > 0.25+1e-9 {
+			return errFake
+		}
+		return nil
+	}
+	options := func() (Options, *atomic.Int64) {
+		calls := &atomic.Int64{}
+		return Options{Jobs: 1, NewSolver: func() (PointSolver, error) {
+			m, err := fakeMechanism()
+			return &fakeSolver{calls: calls, mech: m, fail: fail, hard: hard}, err
+		}}, calls
+	}
+	t.Run("a hard step halves the next", func(t *testing.T) {
+		c := sweepCase(t, "equivalence_ratio = [0.6, 0.8, 1.0, 1.2, 1.4]")
+		dir := t.TempDir()
+		opt, calls := options()
+		runSweep(t, c, dir, opt)
+		// 1.0 cold; 0.8 and 1.2 hard (0.2); 0.6 and 1.4 through 0.7 and 1.3.
+		if calls.Load() != 7 {
+			t.Errorf("%d solves, want 7", calls.Load())
+		}
+		r := readRecord(t, dir, "phi1.200_T298.0_P101325")
+		if math.Abs(r.NextStep-0.1) > 1e-12 || len(r.Attempts[0].Intermediate) != 0 {
+			t.Errorf("phi 1.2: next step %g, intermediate %v; want 0.1 and none", r.NextStep, r.Attempts[0].Intermediate)
+		}
+		r = readRecord(t, dir, "phi1.400_T298.0_P101325")
+		if fmt.Sprint(r.Attempts[0].Intermediate) != "[1.3]" || r.NewtonIterations != 14 || r.ContinuedFrom != "phi1.200_T298.0_P101325" {
+			t.Errorf("phi 1.4: intermediate %v, %d Newton iterations, from %s; want [1.3], 14, phi 1.2",
+				r.Attempts[0].Intermediate, r.NewtonIterations, r.ContinuedFrom)
+		}
+		// The fake's S_L carries the start's phi: 1.3, the intermediate.
+		if d := r.FlameSpeed - fakeSpeed(r.Condition()) - 1.3e-9; math.Abs(d) > 1e-15 {
+			t.Errorf("phi 1.4 did not start from the intermediate 1.3 (S_L off by %g)", d)
+		}
+	})
+	t.Run("a failed step is retried at half the size", func(t *testing.T) {
+		c := sweepCase(t, "equivalence_ratio = [1.0, 1.3]")
+		dir := t.TempDir()
+		opt, calls := options()
+		runSweep(t, c, dir, opt)
+		r := readRecord(t, dir, "phi1.300_T298.0_P101325")
+		if r.Status != Solved || fmt.Sprint(r.Attempts[0].Intermediate) != "[1.15]" || len(r.Attempts) != 1 || calls.Load() != 4 {
+			t.Errorf("phi 1.3: %s via %v in %d attempt(s), %d solves; want solved via [1.15] in 1 attempt, 4 solves",
+				r.Status, r.Attempts[0].Intermediate, len(r.Attempts), calls.Load())
+		}
+	})
+	t.Run("a resumed run takes the same steps", func(t *testing.T) {
+		c := sweepCase(t, "equivalence_ratio = [0.6, 0.8, 1.0, 1.2, 1.4, 1.6]")
+		ref := t.TempDir()
+		opt, _ := options()
+		runSweep(t, c, ref, opt)
+		dir := t.TempDir()
+		ctx, cancel := context.WithCancel(context.Background())
+		defer cancel()
+		opt, _ = options()
+		opt.Progress = func(p Progress) {
+			if p.Done == 3 {
+				cancel()
+			}
+		}
+		if _, err := Run(ctx, c, dir, opt); !errors.Is(err, ErrInterrupted) {
+			t.Fatal(err)
+		}
+		opt, _ = options()
+		runSweep(t, c, dir, opt)
+		sameTables(t, "resumed vs uninterrupted", reproducible(t, dir), reproducible(t, ref))
+	})
 }
