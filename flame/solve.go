@@ -301,6 +301,13 @@ func (s *Solver) newtonOptions(set Settings, b int) newton.Options {
 		o.Lower[c] = -1e-7
 		o.Upper[c] = 1.0 + 1e-7
 	}
+	// Mass fractions decaying exponentially (a fuel consumed by a fast
+	// step) would otherwise reach subnormal numbers; 1e-100 is 89 orders of
+	// magnitude below the absolute tolerance.
+	o.Flush = make([]float64, b)
+	for k := 0; k < K; k++ {
+		o.Flush[compY(k)] = flushY
+	}
 	o.AbsTol[compT] = set.AbsTolT
 	o.Lower[compT], o.Upper[compT] = 200, 6000
 	cm := compM(K)
@@ -404,6 +411,9 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 		sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
 	}
 }
+
+// flushY is the magnitude below which mass fractions are set to zero.
+const flushY = 1e-100
 
 // maxRegridRetries bounds the halvings of the whole grid after failed solves.
 const maxRegridRetries = 2

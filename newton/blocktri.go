@@ -33,7 +33,7 @@ type BlockTridiagonal struct {
 	lu       []float64 // LU factors of the Schur complements D′_j, unit lower part below the diagonal
 	piv      []int     // row interchanges of each D′_j: row i was swapped with row piv[j·B+i]
 	g        []float64 // G_j = D′_j⁻¹ · Upper_j
-	rowMax   []float64 // scratch: largest |entry| of each row of the block being factored
+	colMax   []float64 // scratch: largest |entry| of each column of the block being factored
 	factored bool
 
 	// Scratch for FiniteDifferenceJacobian, allocated on first use.
@@ -96,9 +96,13 @@ func (e *SingularError) Error() string {
 }
 
 // pivotTolerance is the relative size below which a pivot counts as zero:
-// |pivot| ≤ pivotTolerance · (largest |entry| of its row before elimination).
-// Measuring against the row keeps the test independent of row scaling, which
-// in discretised PDEs differs by many orders of magnitude between equations.
+// |pivot| ≤ pivotTolerance · (largest |entry| of its column before
+// elimination), i.e. the column has cancelled to round-off. Measuring
+// against the column keeps the test independent of row scaling, which in
+// discretised PDEs differs by many orders of magnitude between equations,
+// and of rows that are large in other columns (an energy row of a flame
+// holds chemical-source derivatives up to 1e14 times its temperature
+// entry; a row-relative test would call that well-defined pivot zero).
 const pivotTolerance = 1e-14
 
 // Factor computes the block LU factorisation (block Thomas algorithm) of m:
@@ -123,7 +127,7 @@ func (m *BlockTridiagonal) Factor() error {
 		m.lu = make([]float64, n*bb)
 		m.g = make([]float64, n*bb)
 		m.piv = make([]int, n*b)
-		m.rowMax = make([]float64, b)
+		m.colMax = make([]float64, b)
 	}
 	m.factored = false
 	copy(m.lu, m.Diag)
@@ -145,7 +149,7 @@ func (m *BlockTridiagonal) Factor() error {
 			}
 		}
 		piv := m.piv[j*b : (j+1)*b]
-		if err := luFactor(d, piv, b, m.rowMax); err != nil {
+		if err := luFactor(d, piv, b, m.colMax); err != nil {
 			err.Point = j
 			return err
 		}
@@ -166,17 +170,18 @@ func (m *BlockTridiagonal) Factor() error {
 
 // luFactor overwrites the b×b row-major matrix a with its LU factors
 // (PA = LU, L unit lower triangular), recording the interchanges in piv.
-// rowMax is scratch of length b. The returned error has Point unset.
-func luFactor(a []float64, piv []int, b int, rowMax []float64) *SingularError {
+// colMax is scratch of length b. The returned error has Point unset.
+func luFactor(a []float64, piv []int, b int, colMax []float64) *SingularError {
+	for c := range colMax[:b] {
+		colMax[c] = 0
+	}
 	for r := 0; r < b; r++ {
-		mx := 0.0
 		for c, v := range a[r*b : (r+1)*b] {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return &SingularError{Component: c, NotFinite: true}
 			}
-			mx = max(mx, math.Abs(v))
+			colMax[c] = max(colMax[c], math.Abs(v))
 		}
-		rowMax[r] = mx
 	}
 	for k := 0; k < b; k++ {
 		p, pv := k, math.Abs(a[k*b+k])
@@ -185,7 +190,7 @@ func luFactor(a []float64, piv []int, b int, rowMax []float64) *SingularError {
 				p, pv = r, v
 			}
 		}
-		if pv == 0 || pv <= pivotTolerance*rowMax[p] {
+		if pv == 0 || pv <= pivotTolerance*colMax[k] {
 			return &SingularError{Component: k}
 		}
 		piv[k] = p
@@ -194,7 +199,6 @@ func luFactor(a []float64, piv []int, b int, rowMax []float64) *SingularError {
 			for c := range rk {
 				rk[c], rp[c] = rp[c], rk[c]
 			}
-			rowMax[k], rowMax[p] = rowMax[p], rowMax[k]
 		}
 		inv := 1 / a[k*b+k]
 		rk := a[k*b+k+1 : (k+1)*b]

@@ -452,3 +452,34 @@ func TestSolveFailureReasons(t *testing.T) {
 		t.Errorf("linear problem: u = %v, %+v; want the target after 1 step, 1 Jacobian, 8 residuals", x, res)
 	}
 }
+
+// Flush zeroes trial values below the floor: a linear problem whose
+// solution has a component of 1e-200 converges to exactly 0 there, and the
+// other component is unaffected.
+func TestFlushZeroesTinyValues(t *testing.T) {
+	p := &linearProblem{target: []float64{1e-200, 3}}
+	opt := DefaultOptions(2)
+	opt.Flush = []float64{1e-100, 0}
+	u := []float64{1, 1}
+	if _, err := Solve(p, u, opt); err != nil {
+		t.Fatal(err)
+	}
+	if u[0] != 0 || math.Abs(u[1]-3) > 1e-12 {
+		t.Errorf("u = %v, want [0 3]", u)
+	}
+	opt.Flush = []float64{1, 0}
+	if _, err := Solve(p, []float64{1, 1}, opt); err == nil {
+		t.Error("a flush floor above AbsTol was accepted")
+	}
+}
+
+// linearProblem is F(u) = u - target on one point.
+type linearProblem struct{ target []float64 }
+
+func (p *linearProblem) Size() (int, int) { return 1, len(p.target) }
+func (p *linearProblem) Residual(u, f []float64) error {
+	for i := range u {
+		f[i] = u[i] - p.target[i]
+	}
+	return nil
+}
