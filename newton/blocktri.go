@@ -33,7 +33,8 @@ type BlockTridiagonal struct {
 	lu       []float64 // LU factors of the Schur complements D′_j, unit lower part below the diagonal
 	piv      []int     // row interchanges of each D′_j: row i was swapped with row piv[j·B+i]
 	g        []float64 // G_j = D′_j⁻¹ · Upper_j
-	colMax   []float64 // scratch: largest |entry| of each column of the block being factored
+	orig     []float64 // scratch: the block being factored, before elimination (b×b)
+	origRow  []int     // scratch: original row index of each current row
 	factored bool
 
 	// Scratch for FiniteDifferenceJacobian, allocated on first use.
@@ -96,13 +97,14 @@ func (e *SingularError) Error() string {
 }
 
 // pivotTolerance is the relative size below which a pivot counts as zero:
-// |pivot| ≤ pivotTolerance · (largest |entry| of its column before
-// elimination), i.e. the column has cancelled to round-off. Measuring
-// against the column keeps the test independent of row scaling, which in
-// discretised PDEs differs by many orders of magnitude between equations,
-// and of rows that are large in other columns (an energy row of a flame
-// holds chemical-source derivatives up to 1e14 times its temperature
-// entry; a row-relative test would call that well-defined pivot zero).
+// |pivot| ≤ pivotTolerance · (largest |entry| the pivot column had, before
+// elimination, in the rows not yet used as pivots), i.e. the column has
+// cancelled to round-off. Measuring against the column keeps the test
+// independent of row scaling, which in discretised PDEs differs by many
+// orders of magnitude between equations, and of rows that are large in other
+// columns (a flame's energy row holds chemical-source derivatives up to 1e14
+// times its temperature entry; a row-relative test calls that well-defined
+// pivot zero).
 const pivotTolerance = 1e-14
 
 // Factor computes the block LU factorisation (block Thomas algorithm) of m:
@@ -127,7 +129,8 @@ func (m *BlockTridiagonal) Factor() error {
 		m.lu = make([]float64, n*bb)
 		m.g = make([]float64, n*bb)
 		m.piv = make([]int, n*b)
-		m.colMax = make([]float64, b)
+		m.orig = make([]float64, b*b)
+		m.origRow = make([]int, b)
 	}
 	m.factored = false
 	copy(m.lu, m.Diag)
@@ -149,7 +152,7 @@ func (m *BlockTridiagonal) Factor() error {
 			}
 		}
 		piv := m.piv[j*b : (j+1)*b]
-		if err := luFactor(d, piv, b, m.colMax); err != nil {
+		if err := luFactor(d, piv, b, m.orig, m.origRow); err != nil {
 			err.Point = j
 			return err
 		}
@@ -170,27 +173,27 @@ func (m *BlockTridiagonal) Factor() error {
 
 // luFactor overwrites the b×b row-major matrix a with its LU factors
 // (PA = LU, L unit lower triangular), recording the interchanges in piv.
-// colMax is scratch of length b. The returned error has Point unset.
-func luFactor(a []float64, piv []int, b int, colMax []float64) *SingularError {
-	for c := range colMax[:b] {
-		colMax[c] = 0
-	}
-	for r := 0; r < b; r++ {
-		for c, v := range a[r*b : (r+1)*b] {
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return &SingularError{Component: c, NotFinite: true}
-			}
-			colMax[c] = max(colMax[c], math.Abs(v))
+// orig (b×b) and origRow (b) are scratch. The returned error has Point unset.
+func luFactor(a []float64, piv []int, b int, orig []float64, origRow []int) *SingularError {
+	for i, v := range a[:b*b] {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return &SingularError{Component: i % b, NotFinite: true}
 		}
+	}
+	copy(orig, a[:b*b])
+	for r := range origRow[:b] {
+		origRow[r] = r
 	}
 	for k := 0; k < b; k++ {
 		p, pv := k, math.Abs(a[k*b+k])
-		for r := k + 1; r < b; r++ {
+		scale := 0.0
+		for r := k; r < b; r++ {
 			if v := math.Abs(a[r*b+k]); v > pv {
 				p, pv = r, v
 			}
+			scale = max(scale, math.Abs(orig[origRow[r]*b+k]))
 		}
-		if pv == 0 || pv <= pivotTolerance*colMax[k] {
+		if pv == 0 || pv <= pivotTolerance*scale {
 			return &SingularError{Component: k}
 		}
 		piv[k] = p
@@ -199,6 +202,7 @@ func luFactor(a []float64, piv []int, b int, colMax []float64) *SingularError {
 			for c := range rk {
 				rk[c], rp[c] = rp[c], rk[c]
 			}
+			origRow[k], origRow[p] = origRow[p], origRow[k]
 		}
 		inv := 1 / a[k*b+k]
 		rk := a[k*b+k+1 : (k+1)*b]
