@@ -261,9 +261,8 @@ var fdPerturbation = math.Sqrt(0x1p-52)
 //
 // each solved by a short damped Newton iteration with Jacobian J + diag(w/dt),
 // and then tries steady Newton again: the alternation used for premixed
-// flames by Smooke, Miller & Kee, Combust. Sci. Technol. 34 (1983) 79–90,
-// and Grcar, "The Twopnt program for boundary value problems", Sandia report
-// SAND91-8230 (1992). w comes from the Transient interface (1 for every
+// flames by Smooke, Miller & Kee, Combust. Sci. Technol. 34 (1983) 79–90.
+// w comes from the Transient interface (1 for every
 // unknown otherwise) evaluated at u_old.
 //
 // On success u holds the solution. Otherwise u holds the last accepted state
