@@ -32,8 +32,6 @@ type fakeSolver struct {
 	mech  *chem.Mechanism
 	// fail, when non-nil, returns the error of a solve (nil: converge).
 	fail func(c study.Condition, start *flame.Solution) error
-	// hard, when non-nil, says a solve needed pseudo-time stepping.
-	hard func(c study.Condition, start *flame.Solution) bool
 }
 
 var fakeMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return builtin.Load("h2o2") })
@@ -71,9 +69,6 @@ func (f *fakeSolver) Solve(c study.Condition, start *flame.Solution) (*study.Res
 	}
 	sol := &flame.Solution{Mechanism: f.mech, Inlet: flame.Inlet{T: c.T, P: c.P, Y: y}, X: []float64{0, 0.003, 0.006, 0.01},
 		U: u, AnchorX: c.Phi, AnchorT: c.T + 400, AdiabaticT: 2000 + 100*c.Phi, InitialLength: 0.01}
-	if f.hard != nil && f.hard(c, start) {
-		sol.Stats.TimeSteps = 10
-	}
 	var names []string
 	for _, sp := range f.mech.Species {
 		names = append(names, sp.Name)

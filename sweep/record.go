@@ -51,10 +51,6 @@ type Record struct {
 	// NewtonIterations are those of the attempt that succeeded, its
 	// intermediate steps included.
 	NewtonIterations int `json:"newton_iterations,omitempty"`
-	// NextStep is the continuation step this point's solve recommends for
-	// its neighbour, in the chain variable (ln P for pressure); 0 means
-	// the whole distance.
-	NextStep float64 `json:"next_step,omitempty"`
 	// WallTimeS is the time of all attempts, s.
 	WallTimeS float64 `json:"wall_time_s"`
 }

@@ -189,13 +189,7 @@ func (r *runner) writeResults() error {
 
 type task struct {
 	point  int
-	starts []startRef // solved neighbours to continue from, nearest first
-}
-
-// startRef is a solved neighbour and the step its solve recommends.
-type startRef struct {
-	point int
-	step  float64
+	starts []int // solved neighbours to continue from, nearest first
 }
 
 type outcome struct {
@@ -309,14 +303,14 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 // startsFor lists the solved ancestors a point continues from, nearest
 // first. Ancestors are committed before their descendants are dispatched,
 // so the list depends only on the outcomes, never on timing.
-func (r *runner) startsFor(i int) []startRef {
+func (r *runner) startsFor(i int) []int {
 	if r.opt.ColdStarts {
 		return nil
 	}
-	var out []startRef
+	var out []int
 	for _, a := range r.plan.Ancestors(i) {
 		if rec := r.recs[a]; rec != nil && rec.Status == Solved {
-			out = append(out, startRef{point: a, step: rec.NextStep})
+			out = append(out, a)
 			if len(out) == maxNeighbourStarts {
 				break
 			}
@@ -343,8 +337,8 @@ func (r *runner) work(tasks <-chan task, done chan<- outcome) {
 	}
 }
 
-// solvePoint tries each start in turn (walking to the point with the
-// start's recommended step), then a cold start if none was tried, and
+// solvePoint tries each start in turn (walking to the point, see steps.go),
+// then a cold start if none was tried, and
 // commits the point. Only a failure to write is returned as an error; a
 // flame that does not converge is a failed record.
 func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
@@ -368,19 +362,19 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 			a.Error = oneLine(err.Error())
 		} else {
 			res = w.res
-			rec.ContinuedFrom, rec.NewtonIterations, rec.NextStep = a.Start, w.iterations, w.nextStep
+			rec.ContinuedFrom, rec.NewtonIterations = a.Start, w.iterations
 		}
 		rec.Attempts = append(rec.Attempts, a)
 	}
-	for _, s := range t.starts {
+	for k, s := range t.starts {
 		t0 := time.Now()
-		from := r.plan.Points[s.point]
+		from := r.plan.Points[s]
 		start, err := solver.ReadStart(pointDir(r.dir, from.ID))
 		if err != nil {
 			rec.Attempts = append(rec.Attempts, Attempt{Start: from.ID, Error: oneLine(err.Error())})
 			continue
 		}
-		if try(from.ID, walk(solver, r.plan.Along, pt.Condition, from.Condition, start, s.step), t0); res != nil {
+		if try(from.ID, walk(solver, r.plan.Along, pt.Condition, from.Condition, start, k == 0), t0); res != nil {
 			break
 		}
 	}

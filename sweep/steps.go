@@ -8,20 +8,21 @@ import (
 	"flame1d/study"
 )
 
-// Step-size control along a chain. Natural-parameter continuation converges
-// fastest with steps matched to how hard the solution changes (Allgower &
-// Georg 1990, "Numerical Continuation Methods", ch. 6; Deuflhard 2004,
-// "Newton Methods for Nonlinear Problems", sec. 5.1): a continuation solve
-// that needed pseudo-time stepping halves the step for the next one; one
-// that converged in a few Newton iterations without it doubles the step.
-// When the recommended step is shorter than the distance to the next point
-// of the chain, the walk solves intermediate conditions on the way; they
-// serve as starts only and are not reported. A failed step is retried at
-// half the size, down to minStepFraction of the distance.
-const (
-	easyIterations  = 25
-	minStepFraction = 1.0 / 8
-)
+// When continuation from the nearest solved neighbour fails (and so does
+// the cold start Study.Solve falls back to), the step is retried at half the
+// size through an intermediate condition, down to minStepFraction of the
+// distance: natural-parameter continuation with step halving (Allgower &
+// Georg 1990, "Numerical Continuation Methods", ch. 6). Intermediate
+// conditions serve as starts only and are not reported. Every failed solve
+// costs a cold start too, so the halving stops at a quarter of the step:
+// a point beyond the flammability limit must not cost dozens of solves.
+//
+// Step-size control that also shortened steps after a hard solve (one that
+// needed pseudo-time stepping) was tried on the CH4/air GRI-Mech 3.0 sweep
+// of bench_test.go and made it slower: the shorter rich-side steps were no
+// easier for the solver. Steps are therefore the chain's own unless one
+// fails.
+const minStepFraction = 1.0 / 4
 
 // coord maps a chain variable to the coordinate steps are measured in: the
 // value itself, or ln P for pressure, whose effects scale with its ratio.
@@ -61,15 +62,14 @@ type walkResult struct {
 	// steps are the intermediate values of the chain variable solved on
 	// the way.
 	steps      []float64
-	iterations int     // Newton iterations of all solves
-	nextStep   float64 // recommended step from the point on
+	iterations int // Newton iterations of all successful solves
 	err        error
 }
 
 // walk continues from start (the solved condition from) to the point's
-// condition along the chain variable, with the step recommended by the
-// start's solve (0: the whole distance at once).
-func walk(solver PointSolver, along Variable, target, from study.Condition, start *flame.Solution, step float64) walkResult {
+// condition along the chain variable; with halve, it halves the step after
+// a failure.
+func walk(solver PointSolver, along Variable, target, from study.Condition, start *flame.Solution, halve bool) walkResult {
 	x0, x1 := along.coord(along.of(from)), along.coord(along.of(target))
 	dist := math.Abs(x1 - x0)
 	sign := 1.0
@@ -77,10 +77,6 @@ func walk(solver PointSolver, along Variable, target, from study.Condition, star
 		sign = -1
 	}
 	h := dist
-	if step > 0 && step < dist {
-		h = step
-	}
-	hMin := math.Min(h, minStepFraction*dist)
 	var w walkResult
 	cur, x := start, x0
 	for {
@@ -95,7 +91,7 @@ func walk(solver PointSolver, along Variable, target, from study.Condition, star
 		out, cold, err := solver.Solve(cond, cur)
 		w.triedCold = w.triedCold || cold
 		if err != nil {
-			if h/2 < hMin*(1-1e-9) {
+			if !halve || h/2 < minStepFraction*dist*(1-1e-9) {
 				w.err = err
 				return w
 			}
@@ -103,14 +99,8 @@ func walk(solver PointSolver, along Variable, target, from study.Condition, star
 			continue
 		}
 		w.iterations += out.Summary.NewtonIterations
-		switch {
-		case out.Solution.Stats.TimeSteps > 0:
-			h = math.Max(h/2, hMin)
-		case out.Summary.NewtonIterations <= easyIterations:
-			h *= 2
-		}
 		if last {
-			w.res, w.cold, w.nextStep = out, cold, h
+			w.res, w.cold = out, cold
 			return w
 		}
 		w.steps = append(w.steps, along.of(cond))
