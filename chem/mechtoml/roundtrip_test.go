@@ -206,9 +206,9 @@ func TestChemicallyActivatedUnitOrders(t *testing.T) {
 	}}
 	m.Reactions = []chem.Reaction{{
 		Equation: "H + O2 (+M) => OH + O (+M)", Form: chem.ChemicallyActivated,
-		Reactants: []chem.Participant{{Species: 0, Coefficient: 1}, {Species: 1, Coefficient: 1}},
-		Products:  []chem.Participant{{Species: 2, Coefficient: 1}, {Species: 3, Coefficient: 1}},
-		ThirdBody: &chem.ThirdBody{Default: 1},
+		Reactants:   []chem.Participant{{Species: 0, Coefficient: 1}, {Species: 1, Coefficient: 1}},
+		Products:    []chem.Participant{{Species: 2, Coefficient: 1}, {Species: 3, Coefficient: 1}},
+		ThirdBody:   &chem.ThirdBody{Default: 1},
 		FalloffRate: &chem.FalloffRate{Low: chem.Arrhenius{A: 2e7}, High: chem.Arrhenius{A: 5e9}},
 	}}
 	back, text := roundTrip(t, m)
