@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"path/filepath"
 	"runtime"
+	"sort"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -71,8 +72,11 @@ type Summary struct {
 	Reused int
 	// Attempted counts the points this run tried to solve.
 	Attempted int
-	Failures  []*Record
-	WallTime  time.Duration
+	// Repaired counts failed points this run solved again from a neighbour
+	// that converged later (see repairFor).
+	Repaired int
+	Failures []*Record
+	WallTime time.Duration
 	// Warnings are worth a look but did not stop the run.
 	Warnings []string
 }
@@ -131,9 +135,9 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 	if err := r.writeResults(); err != nil {
 		return nil, err
 	}
-	attempted, runErr := r.schedule(ctx)
+	attempted, stopped, runErr := r.schedule(ctx)
 	plotErr := writePlots(dir, c.Title, plan, points, r.recs)
-	s := &Summary{Dir: dir, Points: len(points), Reused: reused, Attempted: attempted, WallTime: time.Since(began)}
+	s := &Summary{Dir: dir, Points: len(points), Reused: reused, Attempted: attempted, Repaired: r.repaired, WallTime: time.Since(began)}
 	if warning != "" {
 		s.Warnings = append(s.Warnings, warning)
 	}
@@ -154,8 +158,8 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 	if plotErr != nil {
 		return s, plotErr
 	}
-	if s.Pending > 0 {
-		return s, fmt.Errorf("%w: %d of %d points committed in %s; run the same command again to solve the other %d",
+	if s.Pending > 0 || stopped {
+		return s, fmt.Errorf("%w: %d of %d points committed in %s; run the same command again to solve the other %d and retry the failed ones from their neighbours",
 			ErrInterrupted, len(points)-s.Pending, len(points), dir, s.Pending)
 	}
 	return s, nil
@@ -168,7 +172,9 @@ type runner struct {
 	points []int
 	recs   map[int]*Record // committed points; written by the coordinating goroutine only
 	opt    Options
-	active atomic.Int32 // solves in progress
+	// repaired counts failed points solved again from a neighbour.
+	repaired int
+	active   atomic.Int32 // solves in progress
 }
 
 // threads is the number of residual-evaluation goroutines for the next
@@ -190,19 +196,27 @@ func (r *runner) writeResults() error {
 type task struct {
 	point  int
 	starts []int // solved neighbours to continue from, nearest first
+	// repair: the point was committed as failed; the new attempts add to
+	// the previous ones (and their time), and no cold start is tried again.
+	repair       bool
+	previous     []Attempt
+	previousTime float64
 }
 
 type outcome struct {
-	point int
-	rec   *Record
-	err   error // failure to commit: stops the sweep
+	point  int
+	repair bool
+	rec    *Record
+	err    error // failure to commit: stops the sweep
 }
 
 // schedule solves the pending points on opt.Jobs workers. A point is ready
 // when its parent is committed (solved or failed); the ready point with the
-// most work waiting below it goes first. It returns how many points it
-// attempted.
-func (r *runner) schedule(ctx context.Context) (int, error) {
+// most work waiting below it goes first. Once every point of a chain is
+// committed, its failed points are repaired (see repairFor). It returns how
+// many points it attempted and whether work was left undone because the
+// context was cancelled.
+func (r *runner) schedule(ctx context.Context) (attempted int, stopped bool, err error) {
 	plan := r.plan
 	inRun := make(map[int]bool)
 	for _, i := range r.points {
@@ -211,12 +225,6 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 		}
 	}
 	total := len(inRun)
-	if total == 0 {
-		return 0, nil
-	}
-	if r.opt.Progress != nil {
-		r.opt.Progress(Progress{Total: total})
-	}
 	children := make([][]int, len(plan.Points))
 	for _, i := range r.points {
 		if p := plan.Points[i].Parent; p >= 0 {
@@ -233,11 +241,39 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 			heap.Push(q, i)
 		}
 	}
+	// One repair at a time per chain, so that the order of repairs, and
+	// with it every result, does not depend on timing.
+	var repairs []task
+	repairing := map[int]bool{}
+	queueRepair := func(chain int) {
+		if repairing[chain] {
+			return
+		}
+		if t, ok := r.repairFor(chain); ok {
+			repairs = append(repairs, t)
+			repairing[chain] = true
+		}
+	}
+	chains := map[int]bool{}
+	for _, i := range r.points {
+		chains[plan.Points[i].Chain] = true
+	}
+	for c := range plan.Chains {
+		if chains[c] {
+			queueRepair(c)
+		}
+	}
+	if total == 0 && len(repairs) == 0 {
+		return 0, false, nil
+	}
+	if r.opt.Progress != nil {
+		r.opt.Progress(Progress{Total: total})
+	}
 	jobs := r.opt.Jobs
 	if jobs <= 0 {
 		jobs = runtime.NumCPU()
 	}
-	jobs = min(jobs, total)
+	jobs = max(1, min(jobs, total+len(repairs)))
 	tasks := make(chan task)
 	done := make(chan outcome)
 	var wg sync.WaitGroup
@@ -251,22 +287,31 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 	var fatal error
 	cancelled := false
 	ctxDone := ctx.Done()
-	running, finished, attempted := 0, 0, 0
+	running, finished := 0, 0
 	for {
 		var send chan<- task
 		var next task
-		if fatal == nil && !cancelled && ctx.Err() == nil && q.Len() > 0 {
-			send = tasks
-			next = task{point: q.items[0], starts: r.startsFor(q.items[0])}
+		fromRepairs := false
+		if fatal == nil && !cancelled && ctx.Err() == nil {
+			switch {
+			case q.Len() > 0:
+				send, next = tasks, task{point: q.items[0], starts: r.startsFor(q.items[0])}
+			case len(repairs) > 0:
+				send, next, fromRepairs = tasks, repairs[0], true
+			}
 		}
 		if send == nil && running == 0 {
 			break
 		}
 		select {
 		case send <- next:
-			heap.Pop(q)
+			if fromRepairs {
+				repairs = repairs[1:]
+			} else {
+				heap.Pop(q)
+				attempted++
+			}
 			running++
-			attempted++
 			r.active.Add(1)
 		case o := <-done:
 			running--
@@ -277,17 +322,26 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 				}
 				continue
 			}
+			chain := plan.Points[o.point].Chain
 			r.recs[o.point] = o.rec
-			finished++
+			if o.repair {
+				repairing[chain] = false
+				if o.rec.Status == Solved {
+					r.repaired++
+				}
+			} else {
+				finished++
+				for _, ch := range children[o.point] {
+					if inRun[ch] && !r.opt.ColdStarts {
+						heap.Push(q, ch)
+					}
+				}
+			}
 			if err := r.writeResults(); err != nil && fatal == nil {
 				fatal = err
 			}
-			for _, ch := range children[o.point] {
-				if inRun[ch] && !r.opt.ColdStarts {
-					heap.Push(q, ch)
-				}
-			}
-			if r.opt.Progress != nil {
+			queueRepair(chain)
+			if r.opt.Progress != nil && !o.repair {
 				r.opt.Progress(Progress{Done: finished, Total: total, Record: o.rec})
 			}
 		case <-ctxDone:
@@ -297,7 +351,57 @@ func (r *runner) schedule(ctx context.Context) (int, error) {
 	}
 	close(tasks)
 	wg.Wait()
-	return attempted, fatal
+	stopped = ctx.Err() != nil && (q.Len() > 0 || len(repairs) > 0)
+	return attempted, stopped, fatal
+}
+
+// repairFor returns the next repair of a chain whose points are all
+// committed: its first failed point (in chain order) with an adjacent point
+// along the chain that is solved and has not been tried as its start. A
+// failed chain head, for example, is retried from a branch point that
+// converged from a cold start. The outcome depends only on committed
+// records, so a resumed sweep repairs exactly as an uninterrupted one.
+func (r *runner) repairFor(chain int) (task, bool) {
+	if r.opt.ColdStarts {
+		return task{}, false
+	}
+	members := r.plan.Chains[chain]
+	for _, m := range members {
+		if r.recs[m] == nil {
+			return task{}, false
+		}
+	}
+	line := append([]int(nil), members...)
+	sort.Slice(line, func(a, b int) bool {
+		return r.plan.Along.of(r.plan.Points[line[a]].Condition) < r.plan.Along.of(r.plan.Points[line[b]].Condition)
+	})
+	pos := make(map[int]int, len(line))
+	for k, m := range line {
+		pos[m] = k
+	}
+	for _, m := range members {
+		rec := r.recs[m]
+		if rec.Status != Failed {
+			continue
+		}
+		tried := map[string]bool{}
+		for _, a := range rec.Attempts {
+			tried[a.Start] = true
+		}
+		var starts []int
+		for _, k := range []int{pos[m] - 1, pos[m] + 1} {
+			if k < 0 || k >= len(line) {
+				continue
+			}
+			if n := r.recs[line[k]]; n.Status == Solved && !tried[n.ID] {
+				starts = append(starts, line[k])
+			}
+		}
+		if len(starts) > 0 {
+			return task{point: m, starts: starts, repair: true, previous: rec.Attempts, previousTime: rec.WallTimeS}, true
+		}
+	}
+	return task{}, false
 }
 
 // startsFor lists the solved ancestors a point continues from, nearest
@@ -329,11 +433,11 @@ func (r *runner) work(tasks <-chan task, done chan<- outcome) {
 			solver, solverErr = r.opt.NewSolver()
 		}
 		if solverErr != nil {
-			done <- outcome{point: t.point, err: solverErr}
+			done <- outcome{point: t.point, repair: t.repair, err: solverErr}
 			continue
 		}
 		rec, err := r.solvePoint(solver, t)
-		done <- outcome{point: t.point, rec: rec, err: err}
+		done <- outcome{point: t.point, repair: t.repair, rec: rec, err: err}
 	}
 }
 
@@ -345,8 +449,12 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 	pt := r.plan.Points[t.point]
 	began := time.Now()
 	rec := &Record{ID: pt.ID, EquivalenceRatio: pt.Condition.Phi, UnburnedTemperatureK: pt.Condition.T, PressurePa: pt.Condition.P}
+	if t.repair {
+		rec.Attempts = append(rec.Attempts, t.previous...)
+		rec.WallTimeS = t.previousTime
+	}
 	var res *study.Result
-	triedCold := false
+	triedCold := t.repair
 	try := func(startID string, w walkResult, t0 time.Time) {
 		triedCold = triedCold || w.triedCold
 		a := Attempt{Start: startID, Intermediate: w.steps, NewtonIterations: w.iterations}
@@ -387,7 +495,7 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 		}
 		try(ColdStart, w, t0)
 	}
-	rec.WallTimeS = time.Since(began).Seconds()
+	rec.WallTimeS += time.Since(began).Seconds()
 	dir := pointDir(r.dir, pt.ID)
 	if res == nil {
 		rec.Status = Failed

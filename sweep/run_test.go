@@ -85,7 +85,8 @@ func TestFailedPointsAreReportedAndSkipped(t *testing.T) {
 		t.Fatalf("summary %+v, want 8 solved and phi 0.8 failed", s)
 	}
 	rec := readRecord(t, dir, "phi0.800_T298.0_P101325")
-	// Attempts: from phi 0.9, from phi 1.0 (the next solved ancestor), cold.
+	// Attempts: from phi 0.9, from phi 1.0 (the next solved ancestor), cold,
+	// and, once the chain is done, from phi 0.7 (the repair).
 	var starts []string
 	for _, a := range rec.Attempts {
 		starts = append(starts, a.Start)
@@ -93,14 +94,14 @@ func TestFailedPointsAreReportedAndSkipped(t *testing.T) {
 			t.Errorf("attempt from %s: error %q", a.Start, a.Error)
 		}
 	}
-	if strings.Join(starts, " ") != "phi0.900_T298.0_P101325 phi1.000_T298.0_P101325 cold" {
+	if strings.Join(starts, " ") != "phi0.900_T298.0_P101325 phi1.000_T298.0_P101325 cold phi0.700_T298.0_P101325" {
 		t.Errorf("attempts from %v", starts)
 	}
 	// From the nearest neighbour the step is halved twice (steps.go).
 	if via := fmt.Sprint(rec.Attempts[0].Intermediate); via != "[0.85 0.825]" {
 		t.Errorf("first attempt went through %s, want [0.85 0.825]", via)
 	}
-	if !strings.Contains(rec.Reason, "3 attempt(s) failed") || !strings.Contains(rec.Reason, "phi 0.8") {
+	if !strings.Contains(rec.Reason, "4 attempt(s) failed") || !strings.Contains(rec.Reason, "phi 0.8") {
 		t.Errorf("reason %q", rec.Reason)
 	}
 	if _, err := os.Stat(filepath.Join(pointDir(dir, rec.ID), "profile.csv")); err == nil {
@@ -347,5 +348,52 @@ func TestFailedStepIsHalved(t *testing.T) {
 	}
 	opt, _ = options()
 	runSweep(t, c, dir, opt)
+	sameTables(t, "resumed vs uninterrupted", reproducible(t, dir), reproducible(t, ref))
+}
+
+func TestFailedHeadIsRepairedFromItsBranch(t *testing.T) {
+	// The head (phi 1.0) never converges from a cold start; its branches
+	// start cold instead, and the head is then solved from phi 0.9.
+	fail := func(c study.Condition, s *flame.Solution) error {
+		if s == nil && math.Abs(c.Phi-1.0) < 1e-9 {
+			return errFake
+		}
+		return nil
+	}
+	c := sweepCase(t, "equivalence_ratio = [0.8, 0.9, 1.0, 1.1]")
+	ref := t.TempDir()
+	opt, calls := fakeOptions(2, fail)
+	s := runSweep(t, c, ref, opt)
+	if s.Solved != 4 || s.Repaired != 1 || calls.Load() != 5 {
+		t.Fatalf("summary %+v after %d solves; want 4 solved, 1 repaired, 5 solves", s, calls.Load())
+	}
+	r := readRecord(t, ref, "phi1.000_T298.0_P101325")
+	if r.Status != Solved || r.ContinuedFrom != "phi0.900_T298.0_P101325" || len(r.Attempts) != 2 || r.Attempts[0].Start != ColdStart {
+		t.Errorf("head: %s from %s after attempts %+v", r.Status, r.ContinuedFrom, r.Attempts)
+	}
+	for _, id := range []string{"phi0.900_T298.0_P101325", "phi1.100_T298.0_P101325"} {
+		if r := readRecord(t, ref, id); r.ContinuedFrom != ColdStart {
+			t.Errorf("%s continued from %s, want cold", id, r.ContinuedFrom)
+		}
+	}
+
+	// Stopped after the last point but before the repair: the run says it
+	// is unfinished, and the rerun repairs just as the uninterrupted run.
+	dir := t.TempDir()
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	opt, _ = fakeOptions(1, fail)
+	opt.Progress = func(p Progress) {
+		if p.Done == p.Total && p.Record != nil {
+			cancel()
+		}
+	}
+	if _, err := Run(ctx, c, dir, opt); !errors.Is(err, ErrInterrupted) {
+		t.Fatalf("run stopped before the repair: error %v, want ErrInterrupted", err)
+	}
+	opt, calls = fakeOptions(1, fail)
+	if s := runSweep(t, c, dir, opt); s.Repaired != 1 || calls.Load() != 1 {
+		t.Errorf("rerun repaired %d with %d solves, want 1 and 1", s.Repaired, calls.Load())
+	}
 	sameTables(t, "resumed vs uninterrupted", reproducible(t, dir), reproducible(t, ref))
 }

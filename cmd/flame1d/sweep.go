@@ -165,7 +165,11 @@ func printSweepSummary(w io.Writer, s *sweep.Summary, shard sweep.Shard) {
 	if s.Reused > 0 {
 		fmt.Fprintf(w, "; %d kept from an earlier run", s.Reused)
 	}
-	fmt.Fprintf(w, "; %d solved or tried now in %.1f s\n", s.Attempted, s.WallTime.Seconds())
+	fmt.Fprintf(w, "; %d solved or tried now in %.1f s", s.Attempted, s.WallTime.Seconds())
+	if s.Repaired > 0 {
+		fmt.Fprintf(w, "; %d failed point(s) solved on a second try from a neighbour", s.Repaired)
+	}
+	fmt.Fprintln(w)
 	if len(s.Failures) > 0 {
 		fmt.Fprintln(w, "failed points (no numbers are reported for them):")
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
