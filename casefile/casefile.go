@@ -28,7 +28,7 @@ type Case struct {
 	Mechanism string // built-in name or path (relative paths resolved against the case file's folder)
 
 	// Fuel is the fuel the case burns: [mixture] fuel as inline mole
-	// fractions (a neat fuel or surrogate named "fuel"), or the name of one
+	// fractions (a neat fuel or surrogate named InlineFuelName), or the name of one
 	// of the [fuels.NAME] tables.
 	Fuel fuel.Spec
 	// Fuels are all [fuels.NAME] tables in file order (compare uses them).
@@ -86,6 +86,10 @@ type SolverSettings struct {
 type OutputSettings struct {
 	Directory string
 }
+
+// InlineFuelName names a fuel given as inline mole fractions in [mixture]
+// (it has no table name of its own); messages then point at the key.
+const InlineFuelName = "mixture.fuel"
 
 // DefaultOxidizer is dry air as 21% O2 / 79% N2 by volume.
 func DefaultOxidizer() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
@@ -198,7 +202,7 @@ func Parse(src []byte, file string) (*Case, error) {
 		if err != nil {
 			return nil, fe("mixture.fuel", "%v", err)
 		}
-		c.Fuel = fuel.Spec{Name: "fuel", Composition: norm}
+		c.Fuel = fuel.Spec{Name: InlineFuelName, Composition: norm}
 	default:
 		return nil, fe("mixture.fuel", "missing: give the fuel as mole fractions, e.g. fuel = { CH4 = 1.0 }, or the name of a [fuels.NAME] table")
 	}

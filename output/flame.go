@@ -9,6 +9,7 @@ import (
 	"sort"
 	"strings"
 
+	"flame1d/casefile"
 	"flame1d/flame"
 )
 
@@ -75,7 +76,11 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 		fmt.Fprintf(&b, "%s\n", s.Title)
 	}
 	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
-	fmt.Fprintf(&b, "  fuel                    %s: %s\n", s.Fuel, formatComposition(s.FuelComposition))
+	if s.Fuel == "" || s.Fuel == casefile.InlineFuelName { // inline mole fractions have no name of their own
+		fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.FuelComposition))
+	} else {
+		fmt.Fprintf(&b, "  fuel                    %s: %s\n", s.Fuel, formatComposition(s.FuelComposition))
+	}
 	fmt.Fprintf(&b, "  oxidizer                %s\n", formatComposition(s.Oxidizer))
 	fmt.Fprintf(&b, "  equivalence ratio       %.4g\n", s.EquivalenceRatio)
 	fmt.Fprintf(&b, "  unburned T, P           %.2f K, %.6g Pa (%.4g atm)\n", s.UnburnedTemperatureK, s.PressurePa, s.PressurePa/101325)

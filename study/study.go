@@ -89,7 +89,7 @@ func NewForFuel(c *casefile.Case, mech *chem.Mechanism, spec fuel.Spec, progress
 	}
 	res, err := spec.Resolve(mech, base)
 	if err != nil {
-		return nil, fmt.Errorf("%s: fuel %s: %w", c.File, spec.Name, err)
+		return nil, fmt.Errorf("%s: %w", c.File, err)
 	}
 	solver, err := flame.NewSolver(res.Mechanism)
 	if err != nil {
