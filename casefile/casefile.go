@@ -165,7 +165,13 @@ func Parse(src []byte, file string) (*Case, error) {
 	if err != nil {
 		var pe toml.ParseError
 		if errors.As(err, &pe) {
-			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, pe.Position.Line, pe.Message)
+			// The decoder counts a line break it stumbles on as the start
+			// of the next line; the byte offset names the line it ends.
+			line := pe.Position.Line
+			if st := pe.Position.Start; st > 0 && st <= len(src) {
+				line = 1 + strings.Count(string(src[:st]), "\n")
+			}
+			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, line, pe.Message)
 		}
 		return nil, fmt.Errorf("%s: %w", file, err)
 	}

@@ -67,7 +67,7 @@ func TestErrorsNameKeyAndLine(t *testing.T) {
 		{"unknown fuel name", "[mixture]\nfuel = \"jet\"\nequivalence_ratio = 1\n", "no [fuels.jet] table"},
 		{"negative phi", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = -1\n", "c.toml:3: mixture.equivalence_ratio"},
 		{"cold", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = 1\ntemperature = \"20 K\"\n", "outside 150-2000 K"},
-		{"syntax", "[mixture\nfuel = 1\n", "c.toml:2: TOML syntax"},
+		{"syntax", "[mixture\nfuel = 1\n", "c.toml:1: TOML syntax"},
 		{"one fuel compare", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = 1\n[compare]\nequivalence_ratios = [1.0]\n", "at least two fuels"},
 	} {
 		_, err := Parse([]byte(tc.src), "c.toml")
