@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -85,7 +84,7 @@ every species above 1e-30 and the element potentials.
 		Example: `  flame1d equil --fuel CH4 --phi 1
   flame1d equil --fuel "CH4:0.9,C2H6:0.1" --phi 0.8 --T "350 K" --P "5 bar"
   flame1d equil --fuel H2 --oxidizer "O2:1" --mode tp --T "3000 K" --json
-  flame1d equil --fuel CH4 --exclude "NO,NO2,N2O" --mech my-mech.toml`,
+  flame1d equil --fuel CH4 --exclude "NO,NO2,N2O" --mechanism my-mech.toml`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			m, err := builtin.Load(req.Mechanism)
@@ -97,15 +96,13 @@ every species above 1e-30 and the element potentials.
 				return err
 			}
 			if asJSON {
-				enc := json.NewEncoder(cmd.OutOrStdout())
-				enc.SetIndent("", "  ")
-				return enc.Encode(rep)
+				return writeJSON(cmd.OutOrStdout(), rep)
 			}
 			return rep.writeText(cmd.OutOrStdout())
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&req.Mechanism, "mech", "gri30", "mechanism: built-in name or path to a flame1d mechanism file")
+	f.StringVar(&req.Mechanism, "mechanism", "gri30", "built-in mechanism name or mechanism file (flame1d TOML)")
 	f.StringVar(&req.Fuel, "fuel", "CH4", `fuel mole fractions, e.g. "CH4" or "CH4:0.9,C2H6:0.1"`)
 	f.StringVar(&req.Oxidizer, "oxidizer", "O2:0.21,N2:0.79", "oxidizer mole fractions")
 	f.Float64Var(&req.Phi, "phi", 1, "equivalence ratio")

@@ -131,7 +131,7 @@ func TestEquilCommandErrors(t *testing.T) {
 		{[]string{"--phi", "0"}, "equivalence ratio"},
 		{[]string{"--oxidizer", "N2:1"}, "supplies no oxygen"},
 		{[]string{"--exclude", "FOO"}, "no species \"FOO\""},
-		{[]string{"--mech", "no-such-mechanism"}, "neither a built-in mechanism"},
+		{[]string{"--mechanism", "no-such-mechanism"}, "neither a built-in mechanism"},
 		{[]string{"--min-x", "2"}, "--min-x"},
 		{[]string{"extra"}, "unknown command"},
 	}

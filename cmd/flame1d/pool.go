@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
 	"io"
 	"os"
@@ -164,9 +163,7 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 		results = append(results, res)
 	}
 	if o.JSON {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		return enc.Encode(struct {
+		return writeJSON(w, struct {
 			Mechanism string       `json:"mechanism"`
 			Fuels     []poolResult `json:"fuels"`
 			Note      string       `json:"note"`

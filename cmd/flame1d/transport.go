@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -88,9 +87,7 @@ Give the composition either as mole fractions, --X "CH4:0.095,O2:0.19,N2:0.715"
 				return err
 			}
 			if asJSON {
-				enc := json.NewEncoder(cmd.OutOrStdout())
-				enc.SetIndent("", "  ")
-				return enc.Encode(rep)
+				return writeJSON(cmd.OutOrStdout(), rep)
 			}
 			return rep.writeText(cmd.OutOrStdout())
 		},
