@@ -162,3 +162,46 @@ func TestMergeCommand(t *testing.T) {
 		t.Errorf("fit of the merged table: %v\n%s", err, out)
 	}
 }
+
+// The Slurm scripts of examples/cluster, run task by task without Slurm
+// (SLURM_ARRAY_TASK_ID set in turn), merge into the single run's table.
+func TestSlurmScripts(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the command and solves hydrogen flames")
+	}
+	if _, err := exec.LookPath("bash"); err != nil {
+		t.Skip("no bash")
+	}
+	exe := buildFlame1d(t)
+	work := t.TempDir()
+	casePath := filepath.Join(work, "case.toml")
+	src := strings.Replace(killCase, "{ from = 0.6, to = 1.6, step = 0.1 }", "[0.8, 1.0, 1.2]\ntemperature = [\"298 K\", \"350 K\", \"400 K\"]", 1)
+	if err := os.WriteFile(casePath, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	single := filepath.Join(work, "single")
+	if out, err := exec.Command(exe, "sweep", casePath, "-o", single, "-q").CombinedOutput(); err != nil {
+		t.Fatalf("single sweep: %v\n%s", err, out)
+	}
+	out := filepath.Join(work, "out")
+	env := append(os.Environ(), "SHARDS=3", "CASE="+casePath, "OUT="+out, "FLAME1D="+exe, "SLURM_CPUS_PER_TASK=1")
+	scripts := filepath.Join("..", "..", "examples", "cluster")
+	for i := 0; i < 3; i++ {
+		cmd := exec.Command("bash", filepath.Join(scripts, "slurm-sweep.sh"))
+		cmd.Env = append(env, "SLURM_ARRAY_TASK_ID="+string(rune('0'+i)))
+		if b, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("array task %d: %v\n%s", i, err, b)
+		}
+	}
+	cmd := exec.Command("bash", filepath.Join(scripts, "slurm-merge.sh"))
+	cmd.Env = env
+	if b, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("merge job: %v\n%s", err, b)
+	}
+	if got, want := tableWithoutWallTime(t, filepath.Join(out, "merged")), tableWithoutWallTime(t, single); got != want {
+		t.Errorf("merged table:\n%s\nsingle run:\n%s", got, want)
+	}
+	if _, err := os.Stat(filepath.Join(out, "merged", "correlation.toml")); err != nil {
+		t.Errorf("merge job wrote no correlation: %v", err)
+	}
+}

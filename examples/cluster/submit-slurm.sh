@@ -15,4 +15,5 @@ export OUT=${OUT:-out}
 array=$(sbatch --parsable --array=0-$((SHARDS - 1)) --export=ALL "$here/slurm-sweep.sh")
 array=${array%%;*}
 merge=$(sbatch --parsable --dependency=afterany:"$array" --export=ALL "$here/slurm-merge.sh")
+merge=${merge%%;*}
 echo "sweep array $array ($SHARDS shards of $CASE into $OUT/shard-*), merge job $merge into $OUT/merged"
