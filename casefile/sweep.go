@@ -294,33 +294,21 @@ func (sv sweepVariable) rangeEnd(t map[string]any, key string) (float64, error) 
 // stepSize reads a range step. A temperature step is a difference, so an
 // offset unit ("50 C") converts by its scale alone.
 func (sv sweepVariable) stepSize(v any) (float64, error) {
-	var step float64
-	switch x := v.(type) {
-	case int64:
-		step = float64(x)
-	case float64:
-		step = x
-	case string:
-		if sv.unitless {
-			return 0, fmt.Errorf("step %q: the equivalence ratio is a plain number, written without quotes", x)
-		}
-		v, err := units.Parse(x, sv.dim)
-		if err != nil {
-			return 0, fmt.Errorf("step: %v", err)
-		}
+	step, err := sv.scalar(v)
+	if err != nil {
+		return 0, fmt.Errorf("step: %v", err)
+	}
+	if x, ok := v.(string); ok {
 		// No unit name starts with a digit, sign, point or e/E.
 		if unit := strings.TrimLeft(x, "0123456789.+-eE \t"); unit != "" {
 			zero, err := units.Parse("0 "+unit, sv.dim)
 			if err != nil {
 				return 0, fmt.Errorf("step: %v", err)
 			}
-			v -= zero
+			step -= zero
 		}
-		step = v
-	default:
-		return 0, fmt.Errorf("step: expected a number or a string with units, got %s", tomlType(v))
 	}
-	if !(step > 0) || math.IsInf(step, 0) {
+	if !(step > 0) {
 		return 0, fmt.Errorf("step must be positive (got %v)", v)
 	}
 	return step, nil

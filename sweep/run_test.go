@@ -27,14 +27,7 @@ func TestRunWritesEveryPoint(t *testing.T) {
 	if s.Points != 36 || s.Solved != 36 || s.Attempted != 36 || calls.Load() != 36 {
 		t.Fatalf("summary %+v, %d solver calls; want 36 points solved with 36 calls", s, calls.Load())
 	}
-	tab, err := ReadResults(filepath.Join(dir, ResultsName))
-	if err != nil {
-		t.Fatal(err)
-	}
-	rows, err := tab.Parsed()
-	if err != nil {
-		t.Fatal(err)
-	}
+	tab, rows := readRows(t, dir)
 	for _, r := range rows {
 		// The fake's S_L carries 1e-9 times its start's phi.
 		if d := r.FlameSpeed - fakeSpeed(r.Condition); d < 0 || d > 2e-9 {
@@ -113,14 +106,7 @@ func TestFailedPointsAreReportedAndSkipped(t *testing.T) {
 	if r := readRecord(t, dir, "phi1.200_T298.0_P101325"); r.ContinuedFrom != ColdStart || len(r.Attempts) != 3 {
 		t.Errorf("phi 1.2: continued from %q after %d attempts, want cold after 3", r.ContinuedFrom, len(r.Attempts))
 	}
-	tab, err := ReadResults(filepath.Join(dir, ResultsName))
-	if err != nil {
-		t.Fatal(err)
-	}
-	rows, err := tab.Parsed()
-	if err != nil {
-		t.Fatal(err)
-	}
+	tab, rows := readRows(t, dir)
 	for k, r := range rows {
 		if r.ID != rec.ID {
 			continue
@@ -396,4 +382,18 @@ func TestFailedHeadIsRepairedFromItsBranch(t *testing.T) {
 		t.Errorf("rerun repaired %d with %d solves, want 1 and 1", s.Repaired, calls.Load())
 	}
 	sameTables(t, "resumed vs uninterrupted", reproducible(t, dir), reproducible(t, ref))
+}
+
+// readRows reads a sweep folder's results table and parses its rows.
+func readRows(t *testing.T, dir string) (*Table, []Row) {
+	t.Helper()
+	tab, err := ReadResults(filepath.Join(dir, ResultsName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := tab.Parsed()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return tab, rows
 }

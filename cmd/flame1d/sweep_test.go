@@ -121,23 +121,32 @@ func TestSweepSurvivesKill(t *testing.T) {
 	t.Logf("%d of 11 points were committed at the kill", len(before))
 }
 
+// shardableSweep builds the command, writes a case of three chains (three
+// temperatures) into a new folder and solves it in one run into
+// work/single.
+func shardableSweep(t *testing.T) (exe, work, casePath, single string) {
+	t.Helper()
+	exe = buildFlame1d(t)
+	work = t.TempDir()
+	casePath = filepath.Join(work, "case.toml")
+	src := strings.Replace(killCase, "{ from = 0.6, to = 1.6, step = 0.1 }", "[0.8, 1.0, 1.2]\ntemperature = [\"298 K\", \"350 K\", \"400 K\"]", 1)
+	if err := os.WriteFile(casePath, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	single = filepath.Join(work, "single")
+	if out, err := exec.Command(exe, "sweep", casePath, "-o", single, "-q").CombinedOutput(); err != nil {
+		t.Fatalf("single sweep: %v\n%s", err, out)
+	}
+	return exe, work, casePath, single
+}
+
 // merge names a missing shard and joins complete ones into the table of a
 // single run.
 func TestMergeCommand(t *testing.T) {
 	if testing.Short() {
 		t.Skip("builds the command and solves hydrogen flames")
 	}
-	exe := buildFlame1d(t)
-	work := t.TempDir()
-	casePath := filepath.Join(work, "case.toml")
-	src := strings.Replace(killCase, "{ from = 0.6, to = 1.6, step = 0.1 }", "[0.8, 1.0, 1.2]\ntemperature = [\"298 K\", \"350 K\", \"400 K\"]", 1)
-	if err := os.WriteFile(casePath, []byte(src), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	single := filepath.Join(work, "single")
-	if out, err := exec.Command(exe, "sweep", casePath, "-o", single, "-q").CombinedOutput(); err != nil {
-		t.Fatalf("single sweep: %v\n%s", err, out)
-	}
+	exe, work, casePath, single := shardableSweep(t)
 	var shards []string
 	for i := 0; i < 3; i++ {
 		dir := filepath.Join(work, "out", "shard-"+string(rune('0'+i)))
@@ -172,17 +181,7 @@ func TestSlurmScripts(t *testing.T) {
 	if _, err := exec.LookPath("bash"); err != nil {
 		t.Skip("no bash")
 	}
-	exe := buildFlame1d(t)
-	work := t.TempDir()
-	casePath := filepath.Join(work, "case.toml")
-	src := strings.Replace(killCase, "{ from = 0.6, to = 1.6, step = 0.1 }", "[0.8, 1.0, 1.2]\ntemperature = [\"298 K\", \"350 K\", \"400 K\"]", 1)
-	if err := os.WriteFile(casePath, []byte(src), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	single := filepath.Join(work, "single")
-	if out, err := exec.Command(exe, "sweep", casePath, "-o", single, "-q").CombinedOutput(); err != nil {
-		t.Fatalf("single sweep: %v\n%s", err, out)
-	}
+	exe, work, casePath, single := shardableSweep(t)
 	out := filepath.Join(work, "out")
 	env := append(os.Environ(), "SHARDS=3", "CASE="+casePath, "OUT="+out, "FLAME1D="+exe, "SLURM_CPUS_PER_TASK=1")
 	scripts := filepath.Join("..", "..", "examples", "cluster")
