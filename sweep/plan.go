@@ -12,17 +12,21 @@
 // converges most readily (common practice, no source); along temperature or
 // pressure it is the middle value.
 //
-// Because every point's start is fixed by the layout, not by timing, the
-// results do not depend on how many chains run in parallel (-j), on how the
-// sweep is split into shards, or on whether it was interrupted and resumed:
-// a point's start is read back from the committed state of its neighbour.
+// A point whose continuation fails is retried (steps.go, run.go), and once
+// a chain is committed its failed points are retried from adjacent solved
+// points (repairFor).
 //
-// Output layout of a sweep folder:
+// Because every point's start is fixed by the layout and the committed
+// outcomes, not by timing, the results do not depend on how many chains run
+// in parallel (-j), on how the sweep is split into shards, or on whether it
+// was interrupted and resumed: a point's start is read back from the
+// committed restart.csv of its neighbour.
 //
-//	sweep.json            manifest: the sweep definition and the shard
+// Output layout of a sweep folder (docs/sweeps.md):
+//
+//	sweep.json            manifest: the sweep definition, the shard, the flame1d build
 //	results.csv           one row per condition (see results.go)
-//	points/<id>/          profile.csv, summary.txt, summary.json (study.WriteFlame),
-//	                      state.gob (the converged state, for continuation and restart),
+//	points/<id>/          profile.csv, restart.csv, summary.txt, summary.json (study.WriteFlame),
 //	                      point.json (the point's record; written last, it commits the point)
 //	S_L-vs-<variable>.svg/.png   flame speed against each swept variable
 package sweep
