@@ -149,3 +149,32 @@ func TestRealShardsRestartAndJobsGiveOneTable(t *testing.T) {
 	}
 	sameTables(t, "resumed vs single run", reproducible(t, dir), want)
 }
+
+// studySolver tells a cold start from continuation by the solver's
+// start-up stage (coldStage); if the flame package renamed that stage, a
+// continuation that fell back to a cold start would be reported as
+// continued.
+func TestStudySolverSeesColdStarts(t *testing.T) {
+	if testing.Short() {
+		t.Skip("hydrogen flames")
+	}
+	c := sweepCase(t, "equivalence_ratio = [1.0, 1.1]")
+	s, err := newStudySolver(c, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, cold, err := s.Solve(study.Condition{Phi: 1.0, T: 298, P: 101325}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !cold || !s.sawCold {
+		t.Errorf("cold start: cold %v, stage %q seen %v; want both true", cold, coldStage, s.sawCold)
+	}
+	_, cold, err = s.Solve(study.Condition{Phi: 1.1, T: 298, P: 101325}, res.Solution)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cold || s.sawCold {
+		t.Errorf("continuation: cold %v, stage seen %v; want both false", cold, s.sawCold)
+	}
+}
