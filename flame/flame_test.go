@@ -235,11 +235,11 @@ func TestContinuationMatchesColdStart(t *testing.T) {
 	pc, _ := s.Profile(cont)
 	_, pcold := solve(t, s, next, flame.DefaultSettings())
 	// The two solves end on different grids that both pass the refinement
-	// criteria, so they agree to the grid-discretisation error (under 1% at
-	// the default criteria, TestGridConvergenceHydrogen), not to the Newton
-	// tolerance.
-	if d := math.Abs(pc.FlameSpeed-pcold.FlameSpeed) / pcold.FlameSpeed; d > 5e-3 {
-		t.Errorf("continuation S_L %.5f vs cold start %.5f (rel. diff %.2g > 5e-3)", pc.FlameSpeed, pcold.FlameSpeed, d)
+	// criteria, so they agree to the grid-discretisation error of the
+	// default criteria (halving them moves H2/air S_L by about 0.8%,
+	// TestGridConvergenceHydrogen), not to the Newton tolerance.
+	if d := math.Abs(pc.FlameSpeed-pcold.FlameSpeed) / pcold.FlameSpeed; d > 1e-2 {
+		t.Errorf("continuation S_L %.5f vs cold start %.5f (rel. diff %.2g > 1e-2)", pc.FlameSpeed, pcold.FlameSpeed, d)
 	}
 	t.Logf("continuation %.5f m/s in %d Newton iterations; cold start %.5f m/s", pc.FlameSpeed, cont.Stats.NewtonIterations, pcold.FlameSpeed)
 }

@@ -150,7 +150,39 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	if err := s.checkInlet(in); err != nil {
 		return nil, err
 	}
-	guess, err := s.initialGuess(in, set)
+	// The start-up profiles assume a flame speed of 0.4 m/s. Flames several
+	// times faster (hydrogen-rich) or slower (very lean or rich) can fail
+	// to find their mass flux from there: the start is retried with the
+	// guess raised, then lowered.
+	var stats Stats
+	var firstErr error
+	for _, speed := range startSpeeds {
+		sol, err := s.coldStart(in, set, speed, &stats)
+		if err == nil {
+			stats.WallTime = time.Since(start)
+			sol.Stats = stats
+			return sol, nil
+		}
+		if firstErr == nil {
+			firstErr = err
+		}
+		if !errors.Is(err, ErrNotConverged) {
+			return nil, err
+		}
+		s.report(set, "restart", 0, fmt.Sprintf("start-up with a %.2g m/s flame-speed guess failed; retrying", speed))
+	}
+	return nil, firstErr
+}
+
+// startSpeeds are the flame speeds (m/s) cold starts assume, in the order
+// they are tried.
+var startSpeeds = [...]float64{0.4, 2, 0.1}
+
+// coldStart builds the start-up profiles for a flame-speed guess, solves the
+// species on the fixed temperature profile, then runs the full refinement
+// loop.
+func (s *Solver) coldStart(in Inlet, set Settings, speed float64, stats *Stats) (*Solution, error) {
+	guess, err := s.initialGuess(in, set, speed)
 	if err != nil {
 		return nil, err
 	}
@@ -159,19 +191,13 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	pr.mode = equationMode{energy: false, freeFlux: false}
 	copy(pr.fixedT, temperatures(guess))
 	pr.fixedFlux = guess.MassFlux()
-	var stats Stats
 	s.report(set, "fixed-temperature", len(guess.X), "species with the guessed temperature profile")
 	res, err := newton.Solve(pr, guess.U, s.newtonOptions(set, pr.b))
 	stats.add(res)
 	if err != nil {
 		return nil, fmt.Errorf("%w: fixed-temperature start-up stage: %v", ErrNotConverged, err)
 	}
-	sol, err := s.refineLoop(guess, set, &stats)
-	if sol != nil {
-		stats.WallTime = time.Since(start)
-		sol.Stats = stats
-	}
-	return sol, err
+	return s.refineLoop(guess, set, stats, maxRegridRetries)
 }
 
 // SolveFrom computes the flame for the inlet starting from a previous
@@ -190,10 +216,17 @@ func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, e
 	if err != nil {
 		return nil, fmt.Errorf("adiabatic equilibrium of the inlet mixture: %w", err)
 	}
-	guess := s.adaptGuess(prev, in, set)
+	eqPrev, err := adiabaticEquilibrium(s.ph, prev.Inlet)
+	if err != nil {
+		return nil, fmt.Errorf("adiabatic equilibrium of the previous inlet mixture: %w", err)
+	}
+	guess := s.adaptGuess(prev, in, set, eqPrev, eq)
 	guess.AdiabaticT = eq.T
 	var stats Stats
-	sol, err := s.refineLoop(guess, set, &stats)
+	// No whole-grid halving here: a continuation that fails is better
+	// retried from a nearer condition (the caller's choice) than on a
+	// grid twice as fine.
+	sol, err := s.refineLoop(guess, set, &stats, 0)
 	if sol != nil {
 		stats.WallTime = time.Since(start)
 		sol.Stats = stats
@@ -349,7 +382,7 @@ func indexOf(x []float64, v float64) int {
 
 // refineLoop alternates full solves and grid refinement until the grid
 // satisfies the criteria and both domain ends are flat.
-func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solution, error) {
+func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats, maxRegrids int) (*Solution, error) {
 	K := s.ph.nSpecies
 	b := blockSize(K)
 	comps := make([]int, 0, K+1)
@@ -378,7 +411,7 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats) (*Solutio
 			// A grid too coarse for the flame front is the usual cause of a
 			// failed solve early on: halve every interval, restart from the
 			// state before the attempt and try again.
-			if retries < maxRegridRetries && 2*sol.Points() <= set.Grid.MaxPoints {
+			if retries < maxRegrids && 2*sol.Points() <= set.Grid.MaxPoints {
 				retries++
 				stats.Regrids++
 				sol.X, sol.U = bisectAll(sol.X, before, b)
@@ -449,8 +482,8 @@ const looseRelTol = 1e-3
 // approaches equilibrium within a few kelvin.
 const (
 	endFlatness     = 1e-3
-	outletRise      = 1.0 // K
-	maxDomainGrowth = 20
+	outletRise      = 2.0 // K
+	maxDomainGrowth = 8
 )
 
 // extendDomain lengthens the domain at an end that is not flat, copying the
@@ -501,9 +534,9 @@ func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
 
 // initialGuess builds the start-up profiles: a smooth temperature rise from
 // the inlet to the adiabatic equilibrium temperature, compositions blended
-// between inlet and equilibrium products, and a mass flux from a typical
-// flame speed of 0.4 m/s.
-func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
+// between inlet and equilibrium products, and the mass flux of a flame
+// moving at speed (m/s).
+func (s *Solver) initialGuess(in Inlet, set Settings, speed float64) (*Solution, error) {
 	K := s.ph.nSpecies
 	eq, err := adiabaticEquilibrium(s.ph, in)
 	if err != nil {
@@ -529,7 +562,7 @@ func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
 	// Smooth profile: fraction 0 -> 1 across the clustered zone.
 	frac := func(xv float64) float64 { return 0.5 * (1 + math.Tanh((xv-xc)/(0.25*width))) }
 	rhoU := in.P * meanMolarMassY(s.ph, in.Y) / (thermo.GasConstant * in.T)
-	mGuess := rhoU * 0.4
+	mGuess := rhoU * speed
 	for j, xv := range x {
 		f := frac(xv)
 		if j == 0 {
@@ -552,36 +585,56 @@ func (s *Solver) initialGuess(in Inlet, set Settings) (*Solution, error) {
 // adaptGuess maps a previous solution onto a new inlet state: the profiles
 // are shifted so the previous flame's shape is kept, inlet values replaced,
 // and the anchor kept at the same position.
-func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings) *Solution {
+func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings, eqPrev, eqNew equilibriumState) *Solution {
 	K := s.ph.nSpecies
 	b := blockSize(K)
-	u := append([]float64(nil), prev.U...)
-	x := append([]float64(nil), prev.X...)
+	x, u := s.prunedCopy(prev, set)
 	n := len(x)
-	// Blend: near the inlet use the new inlet composition; the change fades
-	// out across the flame following the old progress variable.
+	// Shift the old profiles by the change of the unburned state, weighted
+	// by 1 - c, and by the change of the adiabatic equilibrium products,
+	// weighted by c, c being the old flame's progress variable (reduced
+	// temperature): the new guess then starts and ends at the right states.
 	Tu0, Tb0 := prev.T(0), prev.T(n-1)
+	// The equilibrium shift applies only to species that the old flame
+	// brought close to equilibrium at its outlet; slow ones (nitric oxide
+	// far below its equilibrium level, say) would otherwise be pushed into
+	// the reaction zone and upset the start.
+	// Mass flux m = rho_u S_L. S_L follows the adiabatic temperature as
+	// exp(-E/(2 R T_ad)) (Zeldovich & Frank-Kamenetskii; Law 2006,
+	// "Combustion Physics", ch. 7) with an overall activation energy of
+	// hydrocarbon and hydrogen flames, and falls roughly as P^-1/2 (common
+	// practice, no source).
+	rhoRatio := (in.P / prev.Inlet.P) * (prev.Inlet.T / in.T) * meanMolarMassY(s.ph, in.Y) / meanMolarMassY(s.ph, prev.Inlet.Y)
+	speedRatio := math.Exp(-overallActivation/(2*thermo.GasConstant)*(1/eqNew.T-1/eqPrev.T)) * math.Sqrt(prev.Inlet.P/in.P)
+	fluxRatio := rhoRatio * speedRatio
+	eqShift := make([]float64, K)
+	yOut := prev.Y(n - 1)
+	for k := 0; k < K; k++ {
+		if math.Abs(yOut[k]-eqPrev.Y[k]) <= 0.5*eqPrev.Y[k] && eqPrev.Y[k] > 1e-3 {
+			eqShift[k] = eqNew.Y[k] - eqPrev.Y[k]
+		}
+	}
 	for j := 0; j < n; j++ {
 		base := j * b
 		c := (u[base+compT] - Tu0) / math.Max(Tb0-Tu0, 1)
 		c = math.Min(math.Max(c, 0), 1)
 		sum := 0.0
 		for k := 0; k < K; k++ {
-			y := u[base+1+k] + (1-c)*(in.Y[k]-prev.Inlet.Y[k])
-			if y < 0 {
-				y = 0
-			}
+			// A shift may ask a species for more than it has where the
+			// old profile is below its equilibrium level (radicals past the
+			// flame); clipping those at zero would strip the reaction zone,
+			// so a species keeps at least a quarter of its old amount.
+			yOld := u[base+1+k]
+			y := yOld + (1-c)*(in.Y[k]-prev.Inlet.Y[k]) + c*eqShift[k]
+			y = math.Max(y, 0.25*c*math.Max(yOld, 0))
 			u[base+1+k] = y
 			sum += y
 		}
 		for k := 0; k < K; k++ {
 			u[base+1+k] /= sum
 		}
-		u[base+compT] += (1 - c) * (in.T - prev.Inlet.T)
-		// S_L falls roughly as P^-1/2 while rho_u rises as P, so the mass
-		// flux scales as P^1/2 (common practice, no source),
-		// and rho_u S_L grows roughly as T_u^0.7 (S_L ~ T_u^1.7).
-		u[base+compM(K)] *= math.Sqrt(in.P/prev.Inlet.P) * math.Pow(in.T/prev.Inlet.T, 0.7)
+		u[base+compT] += (1-c)*(in.T-prev.Inlet.T) + c*(eqNew.T-eqPrev.T)
+		u[base+compM(K)] *= fluxRatio
 	}
 	anchorT := in.T + set.AnchorRise
 	ja := nearestTemperature(u, b, n, anchorT)
@@ -589,6 +642,35 @@ func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings) *Solution {
 	return &Solution{Mechanism: prev.Mechanism, Inlet: in, X: x, U: u, AnchorX: x[ja], AnchorT: anchorT,
 		InitialLength: prev.InitialLength}
 }
+
+// prunedCopy returns the previous solution's grid and state with the points
+// removed that its own refinement criteria no longer need (with a margin of
+// continuationPrune): a chain of continued flames otherwise inherits every
+// point any earlier member needed, and each solve grows dearer. The
+// refinement loop adds back what the new condition needs.
+func (s *Solver) prunedCopy(prev *Solution, set Settings) ([]float64, []float64) {
+	b := blockSize(s.ph.nSpecies)
+	c := set.Grid
+	c.Prune = continuationPrune
+	plan, err := grid.Analyse(prev.X, prev.U, b, nil, []float64{prev.AnchorX}, c)
+	if err != nil || len(plan.Remove) == 0 {
+		return append([]float64(nil), prev.X...), append([]float64(nil), prev.U...)
+	}
+	plan.Insert, plan.At = nil, nil
+	return plan.Apply(prev.X, prev.U, b)
+}
+
+// overallActivation is the overall activation energy (J/mol) used to guess
+// how the flame speed follows the adiabatic temperature between neighbouring
+// conditions: 160 kJ/mol, within the 120-200 kJ/mol usually quoted for
+// methane and light hydrocarbons (common practice, no source). Only the
+// starting guess depends on it.
+const overallActivation = 160e3
+
+// continuationPrune is the grid-pruning margin applied to a solution before
+// it starts a neighbouring condition: points go where every criterion would
+// still hold at half its limit.
+const continuationPrune = 0.5
 
 func meanMolarMassY(ph *physics, Y []float64) float64 {
 	s := 0.0

@@ -7,9 +7,10 @@
 // along one variable (the equivalence ratio, unless the case says otherwise)
 // at fixed values of the others. Its head is solved from a cold start; the
 // chain then walks outwards from the head both ways, each point continuing
-// from the one before it. The head is the point nearest phi = 1.05, where
-// hydrocarbon and hydrogen flames are fastest and thinnest and a cold start
-// converges most readily (common practice, no source); along temperature or
+// from the one before it. Along the equivalence ratio the head is the point
+// nearest the middle of the range, held between 0.9 and 1.25 where flames
+// are fast and a cold start converges most readily (common practice, no
+// source), so that the two branches are balanced; along temperature or
 // pressure it is the middle value.
 //
 // A point whose continuation fails is retried (steps.go, run.go), and once
@@ -96,9 +97,16 @@ func (v Variable) of(c study.Condition) float64 {
 	return c.Phi
 }
 
-// chainStartPhi is the equivalence ratio nearest which a chain along the
-// equivalence ratio starts.
-const chainStartPhi = 1.05
+// A chain along the equivalence ratio starts at the point nearest the
+// middle of its range, held within [headPhiMin, headPhiMax]: near
+// stoichiometric, where hydrocarbon and hydrogen flames are fastest and a
+// cold start converges most readily (common practice, no source), and as
+// central as that allows, so that the two branches walking out from the
+// head are of similar length and run in parallel to similar ends.
+const (
+	headPhiMin = 0.9
+	headPhiMax = 1.25
+)
 
 // Point is one condition of a sweep.
 type Point struct {
@@ -216,15 +224,17 @@ func chooseAlong(d Definition) (Variable, error) {
 }
 
 // chainHead returns the index of a chain's head among the ascending values
-// of its variable: nearest chainStartPhi for the equivalence ratio (ties to
-// the leaner value), the lower middle value otherwise.
+// of its variable: for the equivalence ratio, nearest the middle of the range
+// clamped to [headPhiMin, headPhiMax] (ties to the leaner value); the lower
+// middle value otherwise.
 func chainHead(along Variable, line []float64) int {
 	if along != EquivalenceRatio {
 		return (len(line) - 1) / 2
 	}
+	target := math.Min(math.Max(0.5*(line[0]+line[len(line)-1]), headPhiMin), headPhiMax)
 	best := 0
 	for i, v := range line {
-		if math.Abs(v-chainStartPhi) < math.Abs(line[best]-chainStartPhi)-1e-9 {
+		if math.Abs(v-target) < math.Abs(line[best]-target)-1e-9 {
 			best = i
 		}
 	}

@@ -9,8 +9,8 @@ import (
 )
 
 func TestPlanChainAlongEquivalenceRatio(t *testing.T) {
-	// 0.6, 0.7, ..., 1.8: the head is the point nearest phi = 1.05; 1.0 and
-	// 1.1 are equally near and the tie goes to the leaner one.
+	// 0.6, 0.7, ..., 1.8: the head is the point nearest the middle of the
+	// range (1.2), which lies inside the cold-start window [0.9, 1.25].
 	d := Definition{EquivalenceRatios: []float64{0.6, 0.7, 0.8, 0.9, 1.0, 1.1, 1.2, 1.3, 1.4, 1.5, 1.6, 1.7, 1.8},
 		TemperaturesK: []float64{298}, PressuresPa: []float64{101325}}
 	p, err := NewPlan(d)
@@ -21,8 +21,8 @@ func TestPlanChainAlongEquivalenceRatio(t *testing.T) {
 		t.Fatalf("%d chains along %v, want 1 along the equivalence ratio", len(p.Chains), p.Along)
 	}
 	head := p.Chains[0][0]
-	if got := p.Points[head].Condition.Phi; got != 1.0 {
-		t.Errorf("head at phi %g, want 1.0", got)
+	if got := p.Points[head].Condition.Phi; got != 1.2 {
+		t.Errorf("head at phi %g, want 1.2", got)
 	}
 	// Each point continues from its neighbour towards the head.
 	for i, pt := range p.Points {
@@ -38,16 +38,16 @@ func TestPlanChainAlongEquivalenceRatio(t *testing.T) {
 		}
 	}
 	// Members alternate between the two branches after the head.
-	wantOrder := []int{4, 5, 3, 6, 2, 7, 1, 8, 0, 9, 10, 11, 12}
+	wantOrder := []int{6, 7, 5, 8, 4, 9, 3, 10, 2, 11, 1, 12, 0}
 	if !reflect.DeepEqual(p.Chains[0], wantOrder) {
 		t.Errorf("chain order %v, want %v", p.Chains[0], wantOrder)
 	}
-	// The longest branch below the head is the rich one (8 points).
-	if d := p.depths()[head]; d != 8 {
-		t.Errorf("depth below the head %d, want 8", d)
+	// Both branches below the head are 6 points long.
+	if d := p.depths()[head]; d != 6 {
+		t.Errorf("depth below the head %d, want 6", d)
 	}
-	if a := p.Ancestors(0); !reflect.DeepEqual(a, []int{1, 2, 3, 4}) {
-		t.Errorf("ancestors of phi 0.6: %v, want [1 2 3 4]", a)
+	if a := p.Ancestors(0); !reflect.DeepEqual(a, []int{1, 2, 3, 4, 5, 6}) {
+		t.Errorf("ancestors of phi 0.6: %v, want [1 2 3 4 5 6]", a)
 	}
 }
 

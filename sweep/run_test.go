@@ -346,7 +346,8 @@ func TestFailedHeadIsRepairedFromItsBranch(t *testing.T) {
 		}
 		return nil
 	}
-	c := sweepCase(t, "equivalence_ratio = [0.8, 0.9, 1.0, 1.1]")
+	// Head: nearest the middle of 0.9-1.2 (1.05), the tie to the leaner 1.0.
+	c := sweepCase(t, "equivalence_ratio = [0.9, 1.0, 1.1, 1.2]")
 	ref := t.TempDir()
 	opt, calls := fakeOptions(2, fail)
 	s := runSweep(t, c, ref, opt)
