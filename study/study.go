@@ -8,6 +8,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"sort"
@@ -129,11 +130,19 @@ func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
 	s.Workers = c.Solver.Workers
 	if progress != nil {
 		start := time.Now()
+		// Newton steps carry no message; their residual norm is shown
+		// with the next stage line (the norm the previous stage ended at).
+		residual := math.NaN()
 		s.Progress = func(p flame.Progress) {
 			if p.Message == "" {
+				residual = p.ResidualNorm
 				return
 			}
-			fmt.Fprintf(progress, "[%6.2fs] %-18s %4d points  %s\n", time.Since(start).Seconds(), p.Stage, p.Points, p.Message)
+			norm := "          -"
+			if !math.IsNaN(residual) {
+				norm = fmt.Sprintf("%11.3g", residual)
+			}
+			fmt.Fprintf(progress, "[%6.2fs] %-18s %4d points  residual %s  %s\n", time.Since(start).Seconds(), p.Stage, p.Points, norm, p.Message)
 		}
 	}
 	return s
