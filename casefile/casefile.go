@@ -77,9 +77,12 @@ type GridSettings struct {
 // SolverSettings mirror the [solver] table; zero means "solver default".
 type SolverSettings struct {
 	ThermalDiffusion bool
-	RelativeTol      float64
-	AnchorRise       float64 // K above the unburned temperature
-	Workers          int
+	// CentralConvection selects central convective face values ("central",
+	// second order) instead of the default windward ones ("windward").
+	CentralConvection bool
+	RelativeTol       float64
+	AnchorRise        float64 // K above the unburned temperature
+	Workers           int
 }
 
 // OutputSettings mirror the [output] table.
@@ -117,6 +120,7 @@ type raw struct {
 	} `toml:"grid"`
 	Solver struct {
 		ThermalDiffusion *bool   `toml:"thermal_diffusion"`
+		Convection       string  `toml:"convection"`
 		RelativeTol      float64 `toml:"relative_tolerance"`
 		AnchorRise       float64 `toml:"anchor_rise"`
 		Workers          int     `toml:"workers"`
@@ -293,6 +297,13 @@ func Parse(src []byte, file string) (*Case, error) {
 	c.Solver = SolverSettings{ThermalDiffusion: true, RelativeTol: s.RelativeTol, Workers: s.Workers}
 	if s.ThermalDiffusion != nil {
 		c.Solver.ThermalDiffusion = *s.ThermalDiffusion
+	}
+	switch s.Convection {
+	case "", "windward":
+	case "central":
+		c.Solver.CentralConvection = true
+	default:
+		return nil, fe("solver.convection", "%q: use \"windward\" (default, first order, robust) or \"central\" (second order)", s.Convection)
 	}
 	c.Solver.AnchorRise = s.AnchorRise
 	if s.AnchorRise != 0 && !(s.AnchorRise >= 20 && s.AnchorRise <= 1500) {

@@ -85,11 +85,13 @@ func (s *Solver) Profile(sol *Solution) (*Profile, error) {
 
 // ElementFluxes returns, at each cell midpoint, the total (convective plus
 // diffusive) mass flux of every element in kg/(m^2 s): a conserved quantity
-// of the steady equations, constant through the flame.
-func (s *Solver) ElementFluxes(sol *Solution, thermalDiffusion bool) (elements []string, flux [][]float64, err error) {
+// of the steady equations, constant through the flame. set must be the
+// settings the flame was solved with (thermal diffusion, convection).
+func (s *Solver) ElementFluxes(sol *Solution, set Settings) (elements []string, flux [][]float64, err error) {
 	ph := s.ph
 	K := ph.nSpecies
-	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, thermalDiffusion, 1)
+	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
+	pr.central = set.CentralConvection
 	if err := pr.pointProperties(sol.U); err != nil {
 		return nil, nil, err
 	}
@@ -98,7 +100,7 @@ func (s *Solver) ElementFluxes(sol *Solution, thermalDiffusion bool) (elements [
 	m := sol.MassFlux()
 	for j := 0; j+1 < sol.Points(); j++ {
 		row := make([]float64, len(elements))
-		Ya := sol.Y(j) // windward value: the convective face flux of the discretisation
+		Ya, Yb := sol.Y(j), sol.Y(j+1)
 		for e, el := range elements {
 			aw, _ := thermo.AtomicWeight(el)
 			for k := 0; k < K; k++ {
@@ -106,7 +108,7 @@ func (s *Solver) ElementFluxes(sol *Solution, thermalDiffusion bool) (elements [
 				if n == 0 {
 					continue
 				}
-				row[e] += n * aw * ph.invW[k] * (m*Ya[k] + pr.flux[j*K+k])
+				row[e] += n * aw * ph.invW[k] * (m*pr.face(Ya[k], Yb[k]) + pr.flux[j*K+k])
 			}
 		}
 		flux = append(flux, row)
@@ -124,14 +126,15 @@ func (s *Solver) ElementFluxes(sol *Solution, thermalDiffusion bool) (elements [
 // the in-flame analogue of a flow-reactor pyrolysis measurement. Species
 // that are consumed rather than formed get negative yields; callers usually
 // keep the positive ones and let the element closure adjust the rest.
-func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, x float64, thermalDiffusion bool) (map[string]float64, error) {
+func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, x float64, set Settings) (map[string]float64, error) {
 	ph := s.ph
 	K := ph.nSpecies
 	kf := ph.mech.SpeciesIndex(fuelName)
 	if kf < 0 {
 		return nil, fmt.Errorf("pyrolysis yields: fuel species %q not in the mechanism", fuelName)
 	}
-	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, thermalDiffusion, 1)
+	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
+	pr.central = set.CentralConvection
 	if err := pr.pointProperties(sol.U); err != nil {
 		return nil, err
 	}
@@ -141,7 +144,7 @@ func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, 
 		j++
 	}
 	m := sol.MassFlux()
-	molarFlux := func(k int) float64 { return (m*sol.Y(j)[k] + pr.flux[j*K+k]) * ph.invW[k] }
+	molarFlux := func(k int) float64 { return (m*pr.face(sol.Y(j)[k], sol.Y(j + 1)[k]) + pr.flux[j*K+k]) * ph.invW[k] }
 	inlet := func(k int) float64 { return m * sol.Inlet.Y[k] * ph.invW[k] }
 	consumed := inlet(kf) - molarFlux(kf)
 	if !(consumed > 0) {

@@ -92,6 +92,7 @@ type problem struct {
 	fixedFlux   float64 // kg/(m^2 s), used when !mode.freeFlux
 	fixedT      []float64
 	thermalDiff bool
+	central     bool // central (instead of windward) convective face values
 	workers     []*worker
 	// During Jacobian evaluation: frozen reuses the midpoint transport
 	// properties of the base state and frozenChem its production rates.
@@ -299,8 +300,9 @@ func (p *problem) Residual(u, f []float64) error {
 			case j == 0:
 				fj[compT] = uj[compT] - p.inletT
 				fl := p.flux[0:K]
+				next := u[base+p.b : base+2*p.b]
 				for k := 0; k < K; k++ {
-					fj[1+k] = m*uj[1+k] + fl[k] - m*p.inletY[k]
+					fj[1+k] = m*p.face(uj[1+k], next[1+k]) + fl[k] - m*p.inletY[k]
 				}
 			case j == n-1:
 				prev := u[base-p.b : base]
@@ -314,12 +316,15 @@ func (p *problem) Residual(u, f []float64) error {
 				flL := p.flux[(j-1)*K : j*K]
 				flR := p.flux[j*K : (j+1)*K]
 				wd := p.wdot[j*K : (j+1)*K]
-				// Finite-volume form with the windward (upstream) value as the
-				// convective face flux: (m Y_j + j_{j+1/2}) - (m Y_{j-1} + j_{j-1/2})
-				// = h_C w_j W. Summed over species with element weights the
-				// chemistry cancels, so element fluxes are conserved exactly.
+				// Finite-volume form: (m Y_{j+1/2} + j_{j+1/2}) - (m Y_{j-1/2} +
+				// j_{j-1/2}) = h_C w_j W, the face value Y_{j+1/2} windward (Y_j)
+				// or central ((Y_j + Y_{j+1})/2). Summed over species with
+				// element weights the chemistry cancels, so element fluxes are
+				// conserved exactly.
+				next := u[base+p.b : base+2*p.b]
 				for k := 0; k < K; k++ {
-					fj[1+k] = (m*(uj[1+k]-prev[1+k])+flR[k]-flL[k])/hC - wd[k]*p.ph.molarMass[k]
+					conv := m * (p.face(uj[1+k], next[1+k]) - p.face(prev[1+k], uj[1+k]))
+					fj[1+k] = (conv+flR[k]-flL[k])/hC - wd[k]*p.ph.molarMass[k]
 				}
 				if p.mode.energy {
 					fj[compT] = p.energyResidual(u, j)
@@ -453,7 +458,9 @@ func (p *problem) addChemistryJacobian(u []float64, J *newton.BlockTridiagonal) 
 }
 
 // energyResidual is the temperature form of the energy equation at interior
-// point j, discretised to match the finite-volume species equations:
+// point j, discretised to match the finite-volume species equations
+// (windward faces shown; with central faces the convective sum is
+// (1/2) sum_k [Y_k,j+1 (h_k,j+1 - h_k,j) + Y_k,j-1 (h_k,j - h_k,j-1)]):
 //
 //	F_T = [ m sum_k Y_k,j-1 (h_k,j - h_k,j-1)
 //	      - (lambda_+ (T_j+1 - T_j)/h_R - lambda_- (T_j - T_j-1)/h_L)
@@ -476,16 +483,31 @@ func (p *problem) energyResidual(u []float64, j int) float64 {
 	hR := p.x[j+1] - p.x[j]
 	hC := 0.5 * (hL + hR)
 	yPrev := u[(j-1)*b+1 : (j-1)*b+1+K]
+	yNext := u[(j+1)*b+1 : (j+1)*b+1+K]
 	hPrev, h, hNext := p.hk[(j-1)*K:j*K], p.hk[j*K:(j+1)*K], p.hk[(j+1)*K:(j+2)*K]
 	flL, flR := p.flux[(j-1)*K:j*K], p.flux[j*K:(j+1)*K]
 	wd := p.wdot[j*K : (j+1)*K]
 	conv, diff, heat := 0.0, 0.0, 0.0
 	for k := 0; k < K; k++ {
 		iw := p.ph.invW[k]
-		conv += yPrev[k] * (h[k] - hPrev[k]) * iw
+		if p.central {
+			conv += 0.5 * (yNext[k]*(hNext[k]-h[k]) + yPrev[k]*(h[k]-hPrev[k])) * iw
+		} else {
+			conv += yPrev[k] * (h[k] - hPrev[k]) * iw
+		}
 		diff += ((hNext[k]-h[k])*flR[k] + (h[k]-hPrev[k])*flL[k]) * iw
 		heat += h[k] * wd[k]
 	}
 	cond := p.lambda[j]*(Tp-T)/hR - p.lambda[j-1]*(T-Tm)/hL
 	return (m*conv-cond+0.5*diff)/hC + heat
+}
+
+// face is the convective face value between a point and its downstream
+// neighbour: the windward (upstream) value, or their mean with central
+// convection.
+func (p *problem) face(up, down float64) float64 {
+	if p.central {
+		return 0.5 * (up + down)
+	}
+	return up
 }

@@ -34,6 +34,10 @@ type Settings struct {
 	AnchorRise float64
 	// ThermalDiffusion adds the thermal-diffusion (Soret) flux of light species.
 	ThermalDiffusion bool
+	// CentralConvection takes convective face values as the mean of the two
+	// neighbours (second order) instead of the windward value (first
+	// order, the default, more robust on coarse grids).
+	CentralConvection bool
 	// RelTol and AbsTolY/AbsTolT control Newton convergence on the scaled step.
 	RelTol, AbsTolY, AbsTolT float64
 	// MaxRefinements bounds the solve/refine cycles.
@@ -396,9 +400,14 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats, maxRegrid
 	loose := set
 	loose.RelTol = math.Max(set.RelTol, looseRelTol)
 	tight := false
+	centralOn := false
 	retries := 0
 	for iter := 0; ; iter++ {
 		pr := s.problemFor(sol, set)
+		// Central faces oscillate on grids too coarse for the front; they
+		// are switched on once a windward solution has passed the grid
+		// criteria, and stay on while the grid is refined further.
+		pr.central = set.CentralConvection && centralOn
 		use := loose
 		if tight {
 			use = set
@@ -432,8 +441,11 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats, maxRegrid
 			return sol, fmt.Errorf("grid refinement: %w", err)
 		}
 		if !changed {
-			if tight {
+			if tight && (centralOn || !set.CentralConvection) {
 				return sol, nil
+			}
+			if tight {
+				centralOn = true
 			}
 			tight = true
 			continue

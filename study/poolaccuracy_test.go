@@ -71,7 +71,7 @@ func runPoolAccuracy(t *testing.T, phis []float64) *accuracyRun {
 		t.Fatal(err)
 	}
 	end := r1.Summary.Zones.Pyrolysis[0].EndX
-	y, err := det.Solver.PyrolysisYields(r1.Solution, "nc7h16", poolSpecies, end, det.Settings.ThermalDiffusion)
+	y, err := det.Solver.PyrolysisYields(r1.Solution, "nc7h16", poolSpecies, end, det.Settings)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -121,6 +121,7 @@ func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
 	}
 	s.DomainLength = g.DomainLength
 	s.ThermalDiffusion = c.Solver.ThermalDiffusion
+	s.CentralConvection = c.Solver.CentralConvection
 	if c.Solver.RelativeTol > 0 {
 		s.RelTol = c.Solver.RelativeTol
 	}
