@@ -162,6 +162,18 @@ func TestGridConvergenceHydrogen(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
+	S, _ := hydrogenGridSeries(t, false)
+	if d := math.Abs(S[1]-S[0]) / S[1]; d > 0.01 {
+		t.Errorf("halving the criteria changed S_L by %.3g%% (> 1%%)", 100*d)
+	}
+}
+
+// hydrogenGridSeries solves stoichiometric H2/air with the slope and
+// curvature criteria at 1, 1/2 and 1/4 of their defaults and logs S_L and
+// the observed order p = log2((S1 - S2)/(S2 - S3)) (Roache 1998). It
+// returns the three flame speeds and the finest solution.
+func hydrogenGridSeries(t *testing.T, central bool) ([3]float64, *flame.Solution) {
+	t.Helper()
 	m := mechanism(t, "h2o2")
 	s, err := flame.NewSolver(m)
 	if err != nil {
@@ -169,20 +181,20 @@ func TestGridConvergenceHydrogen(t *testing.T) {
 	}
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	var S [3]float64
+	var last *flame.Solution
 	for i, f := range []float64{1, 0.5, 0.25} {
 		set := flame.DefaultSettings()
+		set.CentralConvection = central
 		set.Grid.Slope *= f
 		set.Grid.Curve *= f
 		sol, p := solve(t, s, in, set)
-		S[i] = p.FlameSpeed
-		t.Logf("criteria x%.2f: S_L = %.5f m/s on %d points", f, p.FlameSpeed, sol.Points())
-	}
-	if d := math.Abs(S[1]-S[0]) / S[1]; d > 0.01 {
-		t.Errorf("halving the criteria changed S_L by %.3g%% (> 1%%)", 100*d)
+		S[i], last = p.FlameSpeed, sol
+		t.Logf("central=%v, criteria x%.2f: S_L = %.5f m/s on %d points", central, f, p.FlameSpeed, sol.Points())
 	}
 	if S[1] != S[2] && S[0] != S[1] {
-		t.Logf("observed order of grid convergence: %.2f", math.Log2(math.Abs((S[0]-S[1])/(S[1]-S[2]))))
+		t.Logf("observed order of grid convergence (central=%v): %.2f", central, math.Log2(math.Abs((S[0]-S[1])/(S[1]-S[2]))))
 	}
+	return S, last
 }
 
 // Pressure and preheat trends of CH4/air at phi = 1: S_L falls roughly as
@@ -310,25 +322,11 @@ func TestCentralConvection(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "h2o2")
+	S, last := hydrogenGridSeries(t, true)
+	m := last.Mechanism
 	s, err := flame.NewSolver(m)
 	if err != nil {
 		t.Fatal(err)
-	}
-	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
-	var S [3]float64
-	var last *flame.Solution
-	for i, f := range []float64{1, 0.5, 0.25} {
-		set := flame.DefaultSettings()
-		set.CentralConvection = true
-		set.Grid.Slope *= f
-		set.Grid.Curve *= f
-		sol, p := solve(t, s, in, set)
-		S[i], last = p.FlameSpeed, sol
-		t.Logf("central, criteria x%.2f: S_L = %.5f m/s on %d points", f, p.FlameSpeed, sol.Points())
-	}
-	if S[0] != S[1] && S[1] != S[2] {
-		t.Logf("observed order with central convection: %.2f", math.Log2(math.Abs((S[0]-S[1])/(S[1]-S[2]))))
 	}
 	set := flame.DefaultSettings()
 	set.CentralConvection = true
@@ -348,7 +346,7 @@ func TestCentralConvection(t *testing.T) {
 	fine := flame.DefaultSettings()
 	fine.Grid.Slope *= 0.25
 	fine.Grid.Curve *= 0.25
-	_, pw := solve(t, s, in, fine)
+	_, pw := solve(t, s, last.Inlet, fine)
 	if d := math.Abs(pw.FlameSpeed-S[2]) / S[2]; d > 0.01 {
 		t.Errorf("finest grids: windward %.5f vs central %.5f m/s (%.2g apart, > 1%%)", pw.FlameSpeed, S[2], d)
 	}
