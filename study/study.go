@@ -54,6 +54,10 @@ type Result struct {
 	Solution  *flame.Solution
 	Profile   *flame.Profile
 	Summary   *output.FlameSummary
+	// ColdStart is true when the flame was solved from the built-in start-up
+	// profiles: no start was given, or continuation from it failed and the
+	// solve fell back to a cold start.
+	ColdStart bool
 }
 
 // LoadMechanism resolves a case's mechanism: a built-in name, or a path
@@ -206,10 +210,12 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 		return nil, err
 	}
 	var sol *flame.Solution
+	cold := start == nil
 	if start != nil {
 		sol, err = s.Solver.SolveFrom(start, in, s.Settings)
 		if err != nil {
 			sol, err = s.Solver.Solve(in, s.Settings)
+			cold = true
 		}
 	} else {
 		sol, err = s.Solver.Solve(in, s.Settings)
@@ -240,7 +246,7 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 		JacobianEvaluations: sol.Stats.JacobianEvaluations, Refinements: sol.Stats.Refinements,
 		WallTimeS: sol.Stats.WallTime.Seconds(), Note: output.SafetyNote, Zones: zones,
 	}
-	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum}, nil
+	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum, ColdStart: cold}, nil
 }
 
 // ReadRestart reads a restart file written by WriteFlame onto the study's

@@ -549,26 +549,14 @@ func (q *readyQueue) Pop() any {
 type studySolver struct {
 	st      *study.Study
 	threads func() int
-	sawCold bool
 }
-
-// coldStage is the solver's first stage on a cold start; continuation never
-// reports it, so seeing it during Study.Solve with a start means that the
-// continuation failed and Study.Solve fell back to a cold start.
-const coldStage = "fixed-temperature"
 
 func newStudySolver(c *casefile.Case, threads func() int) (*studySolver, error) {
 	st, err := study.New(c, nil)
 	if err != nil {
 		return nil, err
 	}
-	s := &studySolver{st: st, threads: threads}
-	st.Settings.Progress = func(p flame.Progress) {
-		if p.Stage == coldStage {
-			s.sawCold = true
-		}
-	}
-	return s, nil
+	return &studySolver{st: st, threads: threads}, nil
 }
 
 // restartName is the converged-state file study.WriteFlame writes beside
@@ -584,14 +572,10 @@ func (s *studySolver) Solve(c study.Condition, start *flame.Solution) (*study.Re
 	if s.threads != nil && s.st.Case.Solver.Workers == 0 {
 		s.st.Settings.Workers = s.threads()
 	}
-	s.sawCold = false
 	res, err := s.st.Solve(c, start)
-	if start == nil {
-		return res, true, err
-	}
 	if err != nil {
 		// Study.Solve falls back to a cold start before it gives up.
 		return nil, true, err
 	}
-	return res, s.sawCold, nil
+	return res, res.ColdStart, nil
 }
