@@ -160,6 +160,7 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	// guess raised, then lowered.
 	var stats Stats
 	var firstErr error
+	startSpeeds := [...]float64{0.4, 2, 0.1} // m/s, in the order tried
 	for _, speed := range startSpeeds {
 		sol, err := s.coldStart(in, set, speed, &stats)
 		if err == nil {
@@ -175,12 +176,9 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 		}
 		s.report(set, "restart", 0, fmt.Sprintf("start-up with a %.2g m/s flame-speed guess failed; retrying", speed))
 	}
-	return nil, firstErr
+	return nil, fmt.Errorf("%w (the start-up was also tried with flame-speed guesses of %g and %g m/s)",
+		firstErr, startSpeeds[1], startSpeeds[2])
 }
-
-// startSpeeds are the flame speeds (m/s) cold starts assume, in the order
-// they are tried.
-var startSpeeds = [...]float64{0.4, 2, 0.1}
 
 // coldStart builds the start-up profiles for a flame-speed guess, solves the
 // species on the fixed temperature profile, then runs the full refinement
