@@ -22,6 +22,17 @@ func mechanism(t testing.TB, name string) *chem.Mechanism {
 	return m
 }
 
+// solverFor loads a built-in mechanism and builds its solver.
+func solverFor(t testing.TB, name string) (*chem.Mechanism, *flame.Solver) {
+	t.Helper()
+	m := mechanism(t, name)
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		t.Fatalf("solver for %s: %v", name, err)
+	}
+	return m, s
+}
+
 func air() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
 
 // inlet builds the premixed inlet of fuel in air at phi, T, P.
@@ -61,11 +72,7 @@ func TestHydrogenAirFlameSpeed(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solve")
 	}
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	sol, p := solve(t, s, in, flame.DefaultSettings())
 	t.Logf("H2/air phi=1: S_L = %.4f m/s, T_b = %.1f K, T_ad = %.1f K, %d points", p.FlameSpeed, p.BurnedT, sol.AdiabaticT, sol.Points())
@@ -114,11 +121,7 @@ func TestMethaneAirFlameSpeeds(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "gri30")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "gri30")
 	cases := []struct{ phi, lo, hi float64 }{
 		{0.8, 0.25, 0.32},
 		{1.0, 0.33, 0.41},
@@ -174,11 +177,7 @@ func TestGridConvergenceHydrogen(t *testing.T) {
 // returns the three flame speeds and the finest solution.
 func hydrogenGridSeries(t *testing.T, central bool) ([3]float64, *flame.Solution) {
 	t.Helper()
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	var S [3]float64
 	var last *flame.Solution
@@ -205,11 +204,7 @@ func TestMethanePressureAndPreheatTrends(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "gri30")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "gri30")
 	ch4 := map[string]float64{"CH4": 1}
 	_, p1 := solve(t, s, inlet(t, m, ch4, 1, 298, thermo.OneAtmosphere), flame.DefaultSettings())
 	_, p10 := solve(t, s, inlet(t, m, ch4, 1, 298, 10*thermo.OneAtmosphere), flame.DefaultSettings())
@@ -232,11 +227,7 @@ func TestContinuationMatchesColdStart(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	h2 := map[string]float64{"H2": 1}
 	base, _ := solve(t, s, inlet(t, m, h2, 1.0, 298, thermo.OneAtmosphere), flame.DefaultSettings())
 	next := inlet(t, m, h2, 0.8, 320, 1.5*thermo.OneAtmosphere)
@@ -258,11 +249,7 @@ func TestContinuationMatchesColdStart(t *testing.T) {
 
 // A mixture that cannot burn is refused with an explanation, not a number.
 func TestNonFlammableMixtureIsRefused(t *testing.T) {
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 0.02, 298, thermo.OneAtmosphere)
 	if _, err := s.Solve(in, flame.DefaultSettings()); err == nil {
 		t.Fatal("phi = 0.02 hydrogen/air solved; want a not-flammable error")
@@ -278,11 +265,7 @@ func TestRestartFileRoundTrip(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	sol, p := solve(t, s, in, flame.DefaultSettings())
 	var buf bytes.Buffer
@@ -361,11 +344,7 @@ func TestHydrogenAirRichPeak(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m := mechanism(t, "h2o2")
-	s, err := flame.NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+	m, s := solverFor(t, "h2o2")
 	speed := map[float64]float64{}
 	for _, phi := range []float64{1.0, 1.6, 3.0} {
 		_, p := solve(t, s, inlet(t, m, map[string]float64{"H2": 1}, phi, 298, thermo.OneAtmosphere), flame.DefaultSettings())
