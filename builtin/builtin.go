@@ -1,7 +1,9 @@
 // Package builtin holds the reaction mechanisms that ship inside flame1d,
-// so that their names work on a machine without any data files: gri30
-// (GRI-Mech 3.0), h2o2 (Burke et al. 2012 hydrogen/oxygen) and
-// nheptane-sk68 (Lu et al. 2009 skeletal n-heptane). Each is a file in
+// so that their names work on a machine without any data files. Every
+// built-in is named first author, year of publication and what it burns:
+// smith1999-natgas (GRI-Mech 3.0), burke2012-hydrogen (Burke et al. 2012
+// hydrogen/oxygen) and lu2009-heptane (Lu et al. 2009 skeletal n-heptane).
+// Each is a file in
 // flame1d's TOML mechanism format (package flame1d/chem/mechtoml) under
 // mechanisms/, converted from the published files by the keyword-block
 // importer, with its citation in the description; see

@@ -14,7 +14,7 @@ import (
 )
 
 func TestNames(t *testing.T) {
-	want := []string{"gri30", "h2o2", "nheptane-sk68"}
+	want := []string{"burke2012-hydrogen", "lu2009-heptane", "smith1999-natgas"}
 	if got := Names(); !reflect.DeepEqual(got, want) {
 		t.Fatalf("Names() = %v, want %v", got, want)
 	}
@@ -31,9 +31,9 @@ func TestCounts(t *testing.T) {
 		species, reactions  int
 		citation, converted string
 	}{
-		{"gri30", []string{"O", "H", "C", "N", "AR"}, 53, 325, "GRI-Mech 3.0", "converted by flame1d mech import"},
-		{"h2o2", []string{"H", "O", "N", "AR", "HE", "C"}, 13, 27, "Burke, M. Chaos, Y. Ju, F. L. Dryer, S. J. Klippenstein", "converted by flame1d mech import"},
-		{"nheptane-sk68", []string{"H", "C", "O", "N"}, 68, 283, "Combustion and Flame 156 (2009) 1542", "converted by flame1d mech import"},
+		{"smith1999-natgas", []string{"O", "H", "C", "N", "AR"}, 53, 325, "GRI-Mech 3.0", "converted by flame1d mech import"},
+		{"burke2012-hydrogen", []string{"H", "O", "N", "AR", "HE", "C"}, 13, 27, "Burke, M. Chaos, Y. Ju, F. L. Dryer, S. J. Klippenstein", "converted by flame1d mech import"},
+		{"lu2009-heptane", []string{"H", "C", "O", "N"}, 68, 283, "Combustion and Flame 156 (2009) 1542", "converted by flame1d mech import"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -119,7 +119,7 @@ func TestPublishedValues(t *testing.T) {
 		t.Fatalf("%s: no reaction %q", m.Name, eq)
 		return nil
 	}
-	gri, err := Mechanism("gri30")
+	gri, err := Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -149,7 +149,7 @@ func TestPublishedValues(t *testing.T) {
 		t.Errorf("CH4 thermo = %+v", ch4)
 	}
 
-	hep, err := Mechanism("nheptane-sk68")
+	hep, err := Mechanism("lu2009-heptane")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -163,17 +163,17 @@ func TestPublishedValues(t *testing.T) {
 		}
 	}
 	if !found {
-		t.Error("nheptane-sk68: no step with A = 1.625e88 /s, b = -21.01")
+		t.Error("lu2009-heptane: no step with A = 1.625e88 /s, b = -21.01")
 	}
 }
 
 // TestLoad: names, .toml paths, and the two ways a user gets it wrong.
 func TestLoad(t *testing.T) {
-	if m, err := Load("h2o2"); err != nil || m.Name != "h2o2" {
-		t.Fatalf("Load(h2o2) = %v, %v", m, err)
+	if m, err := Load("burke2012-hydrogen"); err != nil || m.Name != "burke2012-hydrogen" {
+		t.Fatalf("Load(burke2012-hydrogen) = %v, %v", m, err)
 	}
 	dir := t.TempDir()
-	h2, _ := Mechanism("h2o2")
+	h2, _ := Mechanism("burke2012-hydrogen")
 	path := filepath.Join(dir, "my-h2.toml")
 	if err := mechtoml.WriteFile(path, h2); err != nil {
 		t.Fatal(err)
@@ -198,8 +198,8 @@ func TestLoad(t *testing.T) {
 		want []string
 	}{
 		{kbFile, []string{"keyword-block format", "flame1d mech import"}},
-		{"gri31", []string{`"gri31" is neither a built-in mechanism`, "gri30, h2o2, nheptane-sk68"}},
-		{filepath.Join(dir, "missing.toml"), []string{"does not exist", "gri30, h2o2, nheptane-sk68"}},
+		{"gri31", []string{`"gri31" is neither a built-in mechanism`, "burke2012-hydrogen, lu2009-heptane, smith1999-natgas"}},
+		{filepath.Join(dir, "missing.toml"), []string{"does not exist", "burke2012-hydrogen, lu2009-heptane, smith1999-natgas"}},
 		{dir, []string{"is a directory"}},
 		{broken, []string{broken + ":3:", "species must be an array of tables"}},
 	}
@@ -215,7 +215,7 @@ func TestLoad(t *testing.T) {
 			}
 		}
 	}
-	if _, err := Mechanism("nope"); err == nil || !strings.Contains(err.Error(), "gri30") {
+	if _, err := Mechanism("nope"); err == nil || !strings.Contains(err.Error(), "smith1999-natgas") {
 		t.Errorf("Mechanism(nope) error %v should list the built-in names", err)
 	}
 }
@@ -223,10 +223,10 @@ func TestLoad(t *testing.T) {
 // TestCallsIndependent: each call returns a mechanism of its own (no shared
 // state between callers).
 func TestCallsIndependent(t *testing.T) {
-	a, _ := Mechanism("h2o2")
+	a, _ := Mechanism("burke2012-hydrogen")
 	a.Species[0].Thermo.Low[0] = 99
 	a.Reactions[0].Rate.A = -1
-	b, _ := Mechanism("h2o2")
+	b, _ := Mechanism("burke2012-hydrogen")
 	if b.Species[0].Thermo.Low[0] == 99 || b.Reactions[0].Rate.A == -1 {
 		t.Error("a change to one returned mechanism shows in the next")
 	}
@@ -234,7 +234,7 @@ func TestCallsIndependent(t *testing.T) {
 
 func BenchmarkMechanismGRI30(b *testing.B) {
 	for b.Loop() {
-		if _, err := Mechanism("gri30"); err != nil {
+		if _, err := Mechanism("smith1999-natgas"); err != nil {
 			b.Fatal(err)
 		}
 	}

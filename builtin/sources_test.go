@@ -38,7 +38,7 @@ type source struct {
 // taken from each folder's PROVENANCE.md.
 var sources = []source{
 	{
-		name: "gri30", dir: "gri30", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
+		name: "smith1999-natgas", dir: "gri30", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
 		title: "GRI-Mech 3.0: natural-gas combustion with NOx chemistry (53 species, 325 reactions)",
 		citation: []string{
 			`G. P. Smith, D. M. Golden, M. Frenklach, N. W. Moriarty, B. Eiteneer, M. Goldenberg, C. T. Bowman, R. K. Hanson, S. Song, W. C. Gardiner Jr., V. V. Lissianski, Z. Qin, "GRI-Mech 3.0", released 30 July 1999, http://combustion.berkeley.edu/gri-mech/ (no journal article; the web release is the reference the authors ask for).`,
@@ -48,7 +48,7 @@ var sources = []source{
 		},
 	},
 	{
-		name: "h2o2", dir: "h2o2", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
+		name: "burke2012-hydrogen", dir: "h2o2", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
 		title: "Burke et al. (2012) hydrogen/oxygen mechanism (13 species, 27 reactions)",
 		citation: []string{
 			`M. P. Burke, M. Chaos, Y. Ju, F. L. Dryer, S. J. Klippenstein, "Comprehensive H2/O2 kinetic model for high-pressure combustion", International Journal of Chemical Kinetics 44 (2012) 444-474, doi:10.1002/kin.20603. An update of J. Li, Z. Zhao, A. Kazakov, F. L. Dryer, Int. J. Chem. Kinet. 36 (2004) 566-575.`,
@@ -59,7 +59,7 @@ var sources = []source{
 		},
 	},
 	{
-		name: "nheptane-sk68", dir: "nheptane-sk68", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
+		name: "lu2009-heptane", dir: "nheptane-sk68", mech: "mech.inp", thermo: "thermo.dat", transport: "transport.dat",
 		title: "Skeletal n-heptane mechanism of Lu et al. (2009) (68 species, 283 reactions)",
 		citation: []string{
 			`T. Lu, C. K. Law, C. S. Yoo, J. H. Chen, "Dynamic stiffness removal for direct numerical simulations", Combustion and Flame 156 (2009) 1542-1551. Reduced from the Lawrence Livermore detailed n-heptane mechanism, whose thermo and transport data it uses: H. J. Curran, W. J. Pitz, C. K. Westbrook (2002), UCRL-WEB-204236.`,

@@ -66,19 +66,19 @@ func (c *Case) FuelByName(name string) (fuel.Spec, bool) {
 
 // GridSettings mirror the [grid] table; zero means "solver default".
 type GridSettings struct {
-	InitialPoints int
-	Slope, Curve  float64
-	Ratio         float64
-	Prune         float64
-	MaxPoints     int
-	DomainLength  float64 // m
+	InitialPoints                int
+	MaxChange, MaxGradientChange float64
+	MaxSpacingRatio              float64
+	RemovalMargin                float64
+	MaxPoints                    int
+	DomainLength                 float64 // m
 }
 
 // SolverSettings mirror the [solver] table; zero means "solver default".
 type SolverSettings struct {
 	ThermalDiffusion bool
 	// CentralConvection selects central convective face values ("central",
-	// second order) instead of the default windward ones ("windward").
+	// second order) instead of the default upwind ones ("upwind").
 	CentralConvection bool
 	RelativeTol       float64
 	AnchorRise        float64 // K above the unburned temperature
@@ -110,13 +110,13 @@ type raw struct {
 		Pressure         any                `toml:"pressure"`
 	} `toml:"mixture"`
 	Grid struct {
-		InitialPoints int     `toml:"initial_points"`
-		Slope         float64 `toml:"slope"`
-		Curve         float64 `toml:"curve"`
-		Ratio         float64 `toml:"ratio"`
-		Prune         float64 `toml:"prune"`
-		MaxPoints     int     `toml:"max_points"`
-		DomainLength  any     `toml:"domain_length"`
+		InitialPoints     int     `toml:"initial_points"`
+		MaxChange         float64 `toml:"max_change"`
+		MaxGradientChange float64 `toml:"max_gradient_change"`
+		MaxSpacingRatio   float64 `toml:"max_spacing_ratio"`
+		RemovalMargin     float64 `toml:"removal_margin"`
+		MaxPoints         int     `toml:"max_points"`
+		DomainLength      any     `toml:"domain_length"`
 	} `toml:"grid"`
 	Solver struct {
 		ThermalDiffusion *bool   `toml:"thermal_diffusion"`
@@ -189,7 +189,7 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 	c := &Case{File: file, Title: r.Title, Mechanism: r.Mechanism}
 	if c.Mechanism == "" {
-		c.Mechanism = "gri30"
+		c.Mechanism = "smith1999-natgas"
 	}
 	for _, k := range md.Keys() {
 		if len(k) == 2 && k[0] == "fuels" {
@@ -271,7 +271,7 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 
 	g := r.Grid
-	c.Grid = GridSettings{InitialPoints: g.InitialPoints, Slope: g.Slope, Curve: g.Curve, Ratio: g.Ratio, Prune: g.Prune, MaxPoints: g.MaxPoints}
+	c.Grid = GridSettings{InitialPoints: g.InitialPoints, MaxChange: g.MaxChange, MaxGradientChange: g.MaxGradientChange, MaxSpacingRatio: g.MaxSpacingRatio, RemovalMargin: g.RemovalMargin, MaxPoints: g.MaxPoints}
 	if c.Grid.DomainLength, err = quantity(g.DomainLength, units.Length, 0); err != nil {
 		return nil, fe("grid.domain_length", "%v", err)
 	}
@@ -281,10 +281,10 @@ func Parse(src []byte, file string) (*Case, error) {
 		msg string
 	}{
 		{"grid.initial_points", g.InitialPoints != 0 && g.InitialPoints < 8, "needs at least 8 points"},
-		{"grid.slope", g.Slope < 0 || g.Slope >= 1, "must lie in (0, 1)"},
-		{"grid.curve", g.Curve < 0 || g.Curve >= 1, "must lie in (0, 1)"},
-		{"grid.ratio", g.Ratio != 0 && g.Ratio < 1.2, "must be at least 1.2"},
-		{"grid.prune", g.Prune < 0 || g.Prune >= 1, "must lie in [0, 1)"},
+		{"grid.max_change", g.MaxChange < 0 || g.MaxChange >= 1, "must lie in (0, 1)"},
+		{"grid.max_gradient_change", g.MaxGradientChange < 0 || g.MaxGradientChange >= 1, "must lie in (0, 1)"},
+		{"grid.max_spacing_ratio", g.MaxSpacingRatio != 0 && g.MaxSpacingRatio < 1.2, "must be at least 1.2"},
+		{"grid.removal_margin", g.RemovalMargin < 0 || g.RemovalMargin >= 1, "must lie in [0, 1)"},
 		{"grid.max_points", g.MaxPoints != 0 && g.MaxPoints < 20, "must be at least 20"},
 		{"grid.domain_length", c.Grid.DomainLength < 0, "must be positive"},
 	} {
@@ -299,11 +299,11 @@ func Parse(src []byte, file string) (*Case, error) {
 		c.Solver.ThermalDiffusion = *s.ThermalDiffusion
 	}
 	switch s.Convection {
-	case "", "windward":
+	case "", "upwind":
 	case "central":
 		c.Solver.CentralConvection = true
 	default:
-		return nil, fe("solver.convection", "%q: use \"windward\" (default, first order, robust) or \"central\" (second order)", s.Convection)
+		return nil, fe("solver.convection", "%q: use \"upwind\" (default, first order, robust) or \"central\" (second order)", s.Convection)
 	}
 	c.Solver.AnchorRise = s.AnchorRise
 	if s.AnchorRise != 0 && !(s.AnchorRise >= 20 && s.AnchorRise <= 1500) {

@@ -7,7 +7,7 @@ import (
 
 const minimal = `
 title = "t"
-mechanism = "gri30"
+mechanism = "smith1999-natgas"
 [mixture]
 fuel = { CH4 = 2, C2H6 = 2 }
 equivalence_ratio = 0.9

@@ -7,7 +7,7 @@ import (
 	"testing"
 )
 
-const sweepBase = `mechanism = "h2o2"
+const sweepBase = `mechanism = "burke2012-hydrogen"
 [mixture]
 fuel = { H2 = 1 }
 equivalence_ratio = 1.0

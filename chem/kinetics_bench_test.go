@@ -51,11 +51,11 @@ func benchDerivatives(b *testing.B, set string, T float64, x map[string]float64,
 }
 
 func BenchmarkNetProductionRatesGRI30SameT(b *testing.B) {
-	benchNetRates(b, "gri30", 1800, methaneFlameMidpoint, false)
+	benchNetRates(b, "smith1999-natgas", 1800, methaneFlameMidpoint, false)
 }
 
 func BenchmarkNetProductionRatesGRI30NewT(b *testing.B) {
-	benchNetRates(b, "gri30", 1800, methaneFlameMidpoint, true)
+	benchNetRates(b, "smith1999-natgas", 1800, methaneFlameMidpoint, true)
 }
 
 // unburntMethaneAir is a stoichiometric CH4/air charge at 300 K (the cold
@@ -63,27 +63,27 @@ func BenchmarkNetProductionRatesGRI30NewT(b *testing.B) {
 var unburntMethaneAir = map[string]float64{"CH4": 0.095, "O2": 0.19, "N2": 0.715}
 
 func BenchmarkNetProductionRatesGRI30UnburntNewT(b *testing.B) {
-	benchNetRates(b, "gri30", 300, unburntMethaneAir, true)
+	benchNetRates(b, "smith1999-natgas", 300, unburntMethaneAir, true)
 }
 
 func BenchmarkProductionRateDerivativesGRI30SameT(b *testing.B) {
-	benchDerivatives(b, "gri30", 1800, methaneFlameMidpoint, false)
+	benchDerivatives(b, "smith1999-natgas", 1800, methaneFlameMidpoint, false)
 }
 
 func BenchmarkProductionRateDerivativesGRI30NewT(b *testing.B) {
-	benchDerivatives(b, "gri30", 1800, methaneFlameMidpoint, true)
+	benchDerivatives(b, "smith1999-natgas", 1800, methaneFlameMidpoint, true)
 }
 
 func BenchmarkNetProductionRatesHeptaneNewT(b *testing.B) {
-	benchNetRates(b, "nheptane-sk68", 1500, heptaneFlameState, true)
+	benchNetRates(b, "lu2009-heptane", 1500, heptaneFlameState, true)
 }
 
 func BenchmarkProductionRateDerivativesHeptaneNewT(b *testing.B) {
-	benchDerivatives(b, "nheptane-sk68", 1500, heptaneFlameState, true)
+	benchDerivatives(b, "lu2009-heptane", 1500, heptaneFlameState, true)
 }
 
 func BenchmarkHeatReleaseRateGRI30NewT(b *testing.B) {
-	k, C := benchKinetics(b, "gri30", 1800, methaneFlameMidpoint)
+	k, C := benchKinetics(b, "smith1999-natgas", 1800, methaneFlameMidpoint)
 	b.ReportAllocs()
 	for i := 0; b.Loop(); i++ {
 		_ = k.HeatReleaseRate(1800+float64(i%2), C)

@@ -82,7 +82,7 @@ var heptaneFlameState = map[string]float64{
 }
 
 func griState(tb testing.TB) (*chem.Mechanism, []float64) {
-	m := publishedMechanism(tb, "gri30")
+	m := publishedMechanism(tb, "smith1999-natgas")
 	return m, flameState(tb, m, 1800, thermo.OneAtmosphere, methaneFlameMidpoint, 1e-8)
 }
 
@@ -102,7 +102,7 @@ func randomState(rng *rand.Rand, K int, Tlo, Thi float64) (float64, []float64) {
 // the rate path (mostly products of per-species factors): to round-off,
 // 1e-12 relative covering |ln Kc| up to ~1e3 times the unit round-off.
 func TestPublishedKfOverKrIsKc(t *testing.T) {
-	for _, set := range []string{"gri30", "nheptane-sk68"} {
+	for _, set := range []string{"smith1999-natgas", "lu2009-heptane"} {
 		m := publishedMechanism(t, set)
 		k := mustKinetics(t, m)
 		N := k.NumReactions()
@@ -140,7 +140,7 @@ func TestPublishedKfOverKrIsKc(t *testing.T) {
 // progress of zero (relative 1e-10 of the forward rate: the quotient is
 // set through exp/log of numbers up to ~100).
 func TestPublishedDetailedBalance(t *testing.T) {
-	m := publishedMechanism(t, "gri30")
+	m := publishedMechanism(t, "smith1999-natgas")
 	k := mustKinetics(t, m)
 	N := k.NumReactions()
 	f, b, n, Kc := make([]float64, N), make([]float64, N), make([]float64, N), make([]float64, N)
@@ -206,7 +206,7 @@ func elementMatrix(m *chem.Mechanism) [][]float64 {
 // G_k = sum_r |nu_kr| (forward_r + reverse_r): the test allows 1e-13 of
 // sum_k a_ek G_k (about 500 unit round-offs).
 func TestPublishedConservation(t *testing.T) {
-	for _, set := range []string{"gri30", "nheptane-sk68"} {
+	for _, set := range []string{"smith1999-natgas", "lu2009-heptane"} {
 		m := publishedMechanism(t, set)
 		k := mustKinetics(t, m)
 		K, N := k.NumSpecies(), k.NumReactions()
@@ -259,14 +259,14 @@ func TestPublishedConservation(t *testing.T) {
 // derivatives and heat release, including the n-heptane set's extreme
 // pre-exponentials (1.625E+88 T^-21.01 and its 5.2E+80 T^-19.67 reverse).
 func TestPublishedFinite(t *testing.T) {
-	for _, set := range []string{"gri30", "nheptane-sk68"} {
+	for _, set := range []string{"smith1999-natgas", "lu2009-heptane"} {
 		m := publishedMechanism(t, set)
 		k := mustKinetics(t, m)
 		K, N := k.NumSpecies(), k.NumReactions()
 		wdot, dWdC, dWdT := make([]float64, K), make([]float64, K*K), make([]float64, K)
 		kf, kr, f, b, n := make([]float64, N), make([]float64, N), make([]float64, N), make([]float64, N), make([]float64, N)
 		x := methaneFlameMidpoint
-		if set != "gri30" {
+		if set != "smith1999-natgas" {
 			x = heptaneFlameState
 		}
 		rng := rand.New(rand.NewPCG(5, 6))
@@ -303,9 +303,9 @@ func TestPublishedJacobian(t *testing.T) {
 		T   float64
 		x   map[string]float64
 	}{
-		{"gri30", 1800, methaneFlameMidpoint},
-		{"gri30", 1100, methaneFlameMidpoint},
-		{"nheptane-sk68", 1500, heptaneFlameState},
+		{"smith1999-natgas", 1800, methaneFlameMidpoint},
+		{"smith1999-natgas", 1100, methaneFlameMidpoint},
+		{"lu2009-heptane", 1500, heptaneFlameState},
 	} {
 		m := publishedMechanism(t, c.set)
 		for _, s := range m.Species {

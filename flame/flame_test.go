@@ -72,7 +72,7 @@ func TestHydrogenAirFlameSpeed(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solve")
 	}
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	sol, p := solve(t, s, in, flame.DefaultSettings())
 	t.Logf("H2/air phi=1: S_L = %.4f m/s, T_b = %.1f K, T_ad = %.1f K, %d points", p.FlameSpeed, p.BurnedT, sol.AdiabaticT, sol.Points())
@@ -121,7 +121,7 @@ func TestMethaneAirFlameSpeeds(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m, s := solverFor(t, "gri30")
+	m, s := solverFor(t, "smith1999-natgas")
 	cases := []struct{ phi, lo, hi float64 }{
 		{0.8, 0.25, 0.32},
 		{1.0, 0.33, 0.41},
@@ -177,15 +177,15 @@ func TestGridConvergenceHydrogen(t *testing.T) {
 // returns the three flame speeds and the finest solution.
 func hydrogenGridSeries(t *testing.T, central bool) ([3]float64, *flame.Solution) {
 	t.Helper()
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	var S [3]float64
 	var last *flame.Solution
 	for i, f := range []float64{1, 0.5, 0.25} {
 		set := flame.DefaultSettings()
 		set.CentralConvection = central
-		set.Grid.Slope *= f
-		set.Grid.Curve *= f
+		set.Grid.MaxChange *= f
+		set.Grid.MaxGradientChange *= f
 		sol, p := solve(t, s, in, set)
 		S[i], last = p.FlameSpeed, sol
 		t.Logf("central=%v, criteria x%.2f: S_L = %.5f m/s on %d points", central, f, p.FlameSpeed, sol.Points())
@@ -204,7 +204,7 @@ func TestMethanePressureAndPreheatTrends(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m, s := solverFor(t, "gri30")
+	m, s := solverFor(t, "smith1999-natgas")
 	ch4 := map[string]float64{"CH4": 1}
 	_, p1 := solve(t, s, inlet(t, m, ch4, 1, 298, thermo.OneAtmosphere), flame.DefaultSettings())
 	_, p10 := solve(t, s, inlet(t, m, ch4, 1, 298, 10*thermo.OneAtmosphere), flame.DefaultSettings())
@@ -227,7 +227,7 @@ func TestContinuationMatchesColdStart(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	h2 := map[string]float64{"H2": 1}
 	base, _ := solve(t, s, inlet(t, m, h2, 1.0, 298, thermo.OneAtmosphere), flame.DefaultSettings())
 	next := inlet(t, m, h2, 0.8, 320, 1.5*thermo.OneAtmosphere)
@@ -249,7 +249,7 @@ func TestContinuationMatchesColdStart(t *testing.T) {
 
 // A mixture that cannot burn is refused with an explanation, not a number.
 func TestNonFlammableMixtureIsRefused(t *testing.T) {
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 0.02, 298, thermo.OneAtmosphere)
 	if _, err := s.Solve(in, flame.DefaultSettings()); err == nil {
 		t.Fatal("phi = 0.02 hydrogen/air solved; want a not-flammable error")
@@ -265,14 +265,14 @@ func TestRestartFileRoundTrip(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
 	sol, p := solve(t, s, in, flame.DefaultSettings())
 	var buf bytes.Buffer
 	if err := sol.WriteRestart(&buf); err != nil {
 		t.Fatal(err)
 	}
-	back, err := flame.ReadRestart(bytes.NewReader(buf.Bytes()), "restart.csv", mechanism(t, "h2o2"))
+	back, err := flame.ReadRestart(bytes.NewReader(buf.Bytes()), "restart.csv", mechanism(t, "burke2012-hydrogen"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -298,7 +298,7 @@ func TestRestartFileRoundTrip(t *testing.T) {
 
 // Central convection: second order in space. On three grids with the
 // criteria at 1, 1/2 and 1/4 the observed order of S_L is reported, the
-// conservation of element fluxes holds as with windward faces, and the
+// conservation of element fluxes holds as with upwind faces, and the
 // grid-converged values of both schemes agree (they discretise the same
 // equations): within 1% on the finest grid.
 func TestCentralConvection(t *testing.T) {
@@ -327,11 +327,11 @@ func TestCentralConvection(t *testing.T) {
 		}
 	}
 	fine := flame.DefaultSettings()
-	fine.Grid.Slope *= 0.25
-	fine.Grid.Curve *= 0.25
+	fine.Grid.MaxChange *= 0.25
+	fine.Grid.MaxGradientChange *= 0.25
 	_, pw := solve(t, s, last.Inlet, fine)
 	if d := math.Abs(pw.FlameSpeed-S[2]) / S[2]; d > 0.01 {
-		t.Errorf("finest grids: windward %.5f vs central %.5f m/s (%.2g apart, > 1%%)", pw.FlameSpeed, S[2], d)
+		t.Errorf("finest grids: upwind %.5f vs central %.5f m/s (%.2g apart, > 1%%)", pw.FlameSpeed, S[2], d)
 	}
 }
 
@@ -344,7 +344,7 @@ func TestHydrogenAirRichPeak(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solves")
 	}
-	m, s := solverFor(t, "h2o2")
+	m, s := solverFor(t, "burke2012-hydrogen")
 	speed := map[float64]float64{}
 	for _, phi := range []float64{1.0, 1.6, 3.0} {
 		_, p := solve(t, s, inlet(t, m, map[string]float64{"H2": 1}, phi, 298, thermo.OneAtmosphere), flame.DefaultSettings())

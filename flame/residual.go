@@ -92,7 +92,7 @@ type problem struct {
 	fixedFlux   float64 // kg/(m^2 s), used when !mode.freeFlux
 	fixedT      []float64
 	thermalDiff bool
-	central     bool // central (instead of windward) convective face values
+	central     bool // central (instead of upwind) convective face values
 	workers     []*worker
 	// During Jacobian evaluation: frozen reuses the midpoint transport
 	// properties of the base state and frozenChem its production rates.
@@ -317,7 +317,7 @@ func (p *problem) Residual(u, f []float64) error {
 				flR := p.flux[j*K : (j+1)*K]
 				wd := p.wdot[j*K : (j+1)*K]
 				// Finite-volume form: (m Y_{j+1/2} + j_{j+1/2}) - (m Y_{j-1/2} +
-				// j_{j-1/2}) = h_C w_j W, the face value Y_{j+1/2} windward (Y_j)
+				// j_{j-1/2}) = h_C w_j W, the face value Y_{j+1/2} upwind (Y_j)
 				// or central ((Y_j + Y_{j+1})/2). Summed over species with
 				// element weights the chemistry cancels, so element fluxes are
 				// conserved exactly.
@@ -459,7 +459,7 @@ func (p *problem) addChemistryJacobian(u []float64, J *newton.BlockTridiagonal) 
 
 // energyResidual is the temperature form of the energy equation at interior
 // point j, discretised to match the finite-volume species equations
-// (windward faces shown; with central faces the convective sum is
+// (upwind faces shown; with central faces the convective sum is
 // (1/2) sum_k [Y_k,j+1 (h_k,j+1 - h_k,j) + Y_k,j-1 (h_k,j - h_k,j-1)]):
 //
 //	F_T = [ m sum_k Y_k,j-1 (h_k,j - h_k,j-1)
@@ -473,7 +473,7 @@ func (p *problem) addChemistryJacobian(u []float64, J *newton.BlockTridiagonal) 
 // species residuals. So at a solution the discrete total enthalpy flux is
 // conserved exactly and the burned gas reaches the inlet enthalpy on any
 // grid, while the Jacobian keeps the well-conditioned m cp dT/dx coupling of
-// the temperature form (windward, like the species convection).
+// the temperature form (upwind, like the species convection).
 func (p *problem) energyResidual(u []float64, j int) float64 {
 	K := p.ph.nSpecies
 	b := p.b
@@ -503,7 +503,7 @@ func (p *problem) energyResidual(u []float64, j int) float64 {
 }
 
 // face is the convective face value between a point and its downstream
-// neighbour: the windward (upstream) value, or their mean with central
+// neighbour: the upwind (upstream) value, or their mean with central
 // convection.
 func (p *problem) face(up, down float64) float64 {
 	if p.central {

@@ -35,7 +35,7 @@ type Settings struct {
 	// ThermalDiffusion adds the thermal-diffusion (Soret) flux of light species.
 	ThermalDiffusion bool
 	// CentralConvection takes convective face values as the mean of the two
-	// neighbours (second order) instead of the windward value (first
+	// neighbours (second order) instead of the upwind value (first
 	// order, the default, more robust on coarse grids).
 	CentralConvection bool
 	// RelTol and AbsTolY/AbsTolT control Newton convergence on the scaled step.
@@ -59,7 +59,7 @@ type Progress struct {
 // DefaultSettings returns the settings used when a case does not override them.
 func DefaultSettings() Settings {
 	c := grid.DefaultCriteria()
-	c.Slope, c.Curve, c.Ratio = 0.05, 0.07, 2.5
+	c.MaxChange, c.MaxGradientChange, c.MaxSpacingRatio = 0.05, 0.07, 2.5
 	c.MaxPoints = 1500
 	c.MinRange = 1e-6
 	return Settings{
@@ -285,14 +285,14 @@ func (s *Solver) checkInlet(in Inlet) error {
 
 func withDefaults(s Settings) Settings {
 	d := DefaultSettings()
-	if s.Grid.Slope == 0 {
-		s.Grid.Slope = d.Grid.Slope
+	if s.Grid.MaxChange == 0 {
+		s.Grid.MaxChange = d.Grid.MaxChange
 	}
-	if s.Grid.Curve == 0 {
-		s.Grid.Curve = d.Grid.Curve
+	if s.Grid.MaxGradientChange == 0 {
+		s.Grid.MaxGradientChange = d.Grid.MaxGradientChange
 	}
-	if s.Grid.Ratio == 0 {
-		s.Grid.Ratio = d.Grid.Ratio
+	if s.Grid.MaxSpacingRatio == 0 {
+		s.Grid.MaxSpacingRatio = d.Grid.MaxSpacingRatio
 	}
 	if s.Grid.MaxPoints == 0 {
 		s.Grid.MaxPoints = d.Grid.MaxPoints
@@ -403,7 +403,7 @@ func (s *Solver) refineLoop(sol *Solution, set Settings, stats *Stats, maxRegrid
 	for iter := 0; ; iter++ {
 		pr := s.problemFor(sol, set)
 		// Central faces oscillate on grids too coarse for the front; they
-		// are switched on once a windward solution has passed the grid
+		// are switched on once a upwind solution has passed the grid
 		// criteria, and stay on while the grid is refined further.
 		pr.central = set.CentralConvection && centralOn
 		use := loose
@@ -661,7 +661,7 @@ func (s *Solver) adaptGuess(prev *Solution, in Inlet, set Settings, eqPrev, eqNe
 func (s *Solver) prunedCopy(prev *Solution, set Settings) ([]float64, []float64) {
 	b := blockSize(s.ph.nSpecies)
 	c := set.Grid
-	c.Prune = continuationPrune
+	c.RemovalMargin = continuationPrune
 	plan, err := grid.Analyse(prev.X, prev.U, b, nil, []float64{prev.AnchorX}, c)
 	if err != nil || len(plan.Remove) == 0 {
 		return append([]float64(nil), prev.X...), append([]float64(nil), prev.U...)

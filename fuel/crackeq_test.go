@@ -180,11 +180,11 @@ func TestCrackingStudy(t *testing.T) {
 		res.Steps[0].CarbonShare[set.Index("CSOLID")], res.Steps[1].CarbonShare[set.Index("C16H10")], leader(2), leader(3))
 }
 
-// TestCrackingEquilibriumDefaultCandidates checks the pool of a gri30-based
+// TestCrackingEquilibriumDefaultCandidates checks the pool of a smith1999-natgas-based
 // equilibrium (always available): optimality over the closed-shell C0-C4
 // candidates.
 func TestCrackingEquilibriumDefaultCandidates(t *testing.T) {
-	_, set := builtinMech(t, "gri30")
+	_, set := builtinMech(t, "smith1999-natgas")
 	f := Formula{C: 11.4, H: 22.23}
 	cand := DefaultCandidates(set, f)
 	var names []string
@@ -206,6 +206,6 @@ func TestCrackingEquilibriumDefaultCandidates(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		checkOptimality(t, "gri30", set, f, c.T, c.P, walls, cr.Equilibrium)
+		checkOptimality(t, "smith1999-natgas", set, f, c.T, c.P, walls, cr.Equilibrium)
 	}
 }

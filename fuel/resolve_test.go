@@ -26,7 +26,7 @@ func kerosene() Spec {
 }
 
 func TestResolveClosureAndHeatingValue(t *testing.T) {
-	m, set := builtinMech(t, "nheptane-sk68")
+	m, set := builtinMech(t, "lu2009-heptane")
 	eq := Spec{Name: "eq", HToC: 2, MolarMass: "154.3 g/mol", LowerHeatingValue: "43 MJ/kg",
 		Cracking: CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "10 bar", Exclude: []string{"c2h2", "c3h4-a", "c3h4-p", "c3h2", "c4h6"}}}
 	oxy := Spec{Name: "oxy", Formula: "C10H20O0.5", HigherHeatingValue: "45 MJ/kg",
@@ -115,7 +115,7 @@ func TestResolveClosureAndHeatingValue(t *testing.T) {
 // from memory). The tolerance, 1.5 kJ/mol, covers their rounding and the
 // mechanism's CO2/H2O enthalpies.
 func TestFormationEnthalpyNHeptane(t *testing.T) {
-	m, set := builtinMech(t, "nheptane-sk68")
+	m, set := builtinMech(t, "lu2009-heptane")
 	W := Formula{C: 7, H: 16}.MolarMass()
 	s := Spec{Name: "heptane-as-pool", Formula: "C7H16",
 		HigherHeatingValue: Quantity(ftoa(4817e3/W) + " J/kg"), VaporizationEnthalpy: Quantity(ftoa(36.6e3/W) + " J/kg"),
@@ -149,7 +149,7 @@ func TestFormationEnthalpyNHeptane(t *testing.T) {
 func ftoa(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 
 func TestAugmentMechanism(t *testing.T) {
-	m, set := builtinMech(t, "nheptane-sk68")
+	m, set := builtinMech(t, "lu2009-heptane")
 	s := kerosene()
 	s.SpeciesName = "KERO"
 	r, err := s.Resolve(m, set)
@@ -248,7 +248,7 @@ func TestGlobalStepRate(t *testing.T) {
 }
 
 func TestPrecrackedInlet(t *testing.T) {
-	m, set := builtinMech(t, "nheptane-sk68")
+	m, set := builtinMech(t, "lu2009-heptane")
 	s := kerosene()
 	s.Mode = ModePreCracked
 	r, err := s.Resolve(m, set)
@@ -322,7 +322,7 @@ func elementsPerKg(set *thermo.SpeciesSet, Y []float64) map[string]float64 {
 }
 
 func TestNeatFuel(t *testing.T) {
-	m, set := builtinMech(t, "gri30")
+	m, set := builtinMech(t, "smith1999-natgas")
 	s := Spec{Name: "natural gas", Composition: map[string]float64{"CH4": 0.9, "C2H6": 0.1}}
 	r, err := s.Resolve(m, set)
 	if err != nil {
@@ -348,7 +348,7 @@ func TestNeatFuel(t *testing.T) {
 }
 
 func TestResolveRefusals(t *testing.T) {
-	m, set := builtinMech(t, "nheptane-sk68")
+	m, set := builtinMech(t, "lu2009-heptane")
 	base := kerosene()
 	for _, c := range []struct {
 		name string

@@ -9,10 +9,10 @@ import (
 )
 
 func TestEstimateTransport(t *testing.T) {
-	m, _ := builtinMech(t, "nheptane-sk68")
+	m, _ := builtinMech(t, "lu2009-heptane")
 	k := m.SpeciesIndex("nc7h16")
 	if k < 0 || m.Species[k].Transport == nil {
-		t.Fatal("nheptane-sk68 has no n-heptane transport data")
+		t.Fatal("lu2009-heptane has no n-heptane transport data")
 	}
 	ref := m.Species[k].Transport
 	got, err := EstimateTransport(Formula{C: 7, H: 16}.MolarMass())
@@ -48,7 +48,7 @@ func TestEstimateTransport(t *testing.T) {
 }
 
 func TestParseFuels(t *testing.T) {
-	src := `mechanism = "nheptane-sk68"
+	src := `mechanism = "lu2009-heptane"
 [fuels.kero]
 formula = "C11.4H22.23"
 lower_heating_value = "43.2 MJ/kg"
@@ -74,7 +74,7 @@ diameter = "7.1 Å"
 	if err != nil {
 		t.Fatal(err)
 	}
-	if mech != "nheptane-sk68" || len(specs) != 3 || specs[0].Name != "kero" || specs[1].Name != "ng" || specs[2].Name != "syn" {
+	if mech != "lu2009-heptane" || len(specs) != 3 || specs[0].Name != "kero" || specs[1].Name != "ng" || specs[2].Name != "syn" {
 		t.Fatalf("mechanism %q, specs %+v", mech, specs)
 	}
 	k := specs[0]

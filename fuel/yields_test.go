@@ -17,7 +17,7 @@ type yieldCase struct {
 // The yield sets below are invented; their element sums are exact
 // arithmetic (stated beside each case), so closure is checked to 1e-12.
 func TestCloseYields(t *testing.T) {
-	_, set := builtinMech(t, "nheptane-sk68")
+	_, set := builtinMech(t, "lu2009-heptane")
 	for _, c := range []struct {
 		yieldCase
 		want map[string]float64 // closed pool
@@ -100,7 +100,7 @@ func abs(x float64) float64 {
 }
 
 func TestCloseYieldsRefused(t *testing.T) {
-	_, set := builtinMech(t, "nheptane-sk68")
+	_, set := builtinMech(t, "lu2009-heptane")
 	for _, c := range []struct {
 		yieldCase
 		want []string

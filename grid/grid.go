@@ -7,9 +7,9 @@
 // Three tests mark intervals for splitting (for tested component c with range
 // R_c = max_j u_c,j - min_j u_c,j over the whole domain):
 //
-//	slope:      |u_c,j+1 - u_c,j|   <= Slope * R_c                      interval j
-//	curvature:  |s_c,j - s_c,j-1|   <= Curve * (max_j s_c,j - min_j s_c,j)  point j
-//	ratio:      h_j / h_j±1         <= Ratio                            neighbours
+//	slope:      |u_c,j+1 - u_c,j|   <= MaxChange * R_c                      interval j
+//	curvature:  |s_c,j - s_c,j-1|   <= MaxGradientChange * (max_j s_c,j - min_j s_c,j)  point j
+//	ratio:      h_j / h_j±1         <= MaxSpacingRatio                            neighbours
 //
 // with h_j = x_j+1 - x_j and s_c,j = (u_c,j+1 - u_c,j)/h_j the slope of
 // interval j. The slope and curvature tests are the adaptive-grid criteria
@@ -32,24 +32,26 @@ import (
 // refined grid would hold more than Criteria.MaxPoints points.
 var ErrTooManyPoints = errors.New("grid: too many points")
 
-// Criteria sets how finely a solution is resolved. Slope, Curve and Prune are
+// Criteria sets how finely a solution is resolved. Messages name each
+// field by its case-file key ([grid] max_change, max_gradient_change,
+// max_spacing_ratio, removal_margin, max_points). MaxChange, MaxGradientChange and RemovalMargin are
 // dimensionless fractions; MinRange is in the units of the solution
 // components.
 type Criteria struct {
-	// Ratio is the largest allowed ratio of neighbouring interval sizes (> 1).
-	Ratio float64
-	// Slope is the largest allowed |u_j+1 - u_j| of a tested component, as a
+	// MaxSpacingRatio is the largest allowed ratio of neighbouring interval sizes (> 1).
+	MaxSpacingRatio float64
+	// MaxChange is the largest allowed |u_j+1 - u_j| of a tested component, as a
 	// fraction of that component's range over the domain, in (0, 1].
-	Slope float64
-	// Curve is the largest allowed change of slope between neighbouring
+	MaxChange float64
+	// MaxGradientChange is the largest allowed change of slope between neighbouring
 	// intervals, as a fraction of the range of the slope over the domain, in
 	// (0, 1].
-	Curve float64
-	// Prune, if > 0, lets Analyse remove points where every test still holds
-	// with Prune times its limit after the removal; in [0, 1). Points next to
+	MaxGradientChange float64
+	// RemovalMargin, if > 0, lets Analyse remove points where every test still holds
+	// with RemovalMargin times its limit after the removal; in [0, 1). Points next to
 	// an interval refined in the same call are never removed. 0 turns pruning
 	// off.
-	Prune float64
+	RemovalMargin float64
 	// MaxPoints is the largest number of points refinement may produce;
 	// 0 means no limit.
 	MaxPoints int
@@ -66,23 +68,23 @@ type Criteria struct {
 // below 1e-9 left untested (values in the range used by flame codes; common
 // practice, no source).
 func DefaultCriteria() Criteria {
-	return Criteria{Ratio: 2.5, Slope: 0.05, Curve: 0.1, Prune: 0, MaxPoints: 2000, MinRange: 1e-9}
+	return Criteria{MaxSpacingRatio: 2.5, MaxChange: 0.05, MaxGradientChange: 0.1, RemovalMargin: 0, MaxPoints: 2000, MinRange: 1e-9}
 }
 
 func (c Criteria) validate() error {
 	switch {
-	case !(c.Ratio > 1) || math.IsInf(c.Ratio, 0):
-		return fmt.Errorf("grid: criteria: Ratio = %g, want a finite value > 1", c.Ratio)
-	case !(c.Slope > 0 && c.Slope <= 1):
-		return fmt.Errorf("grid: criteria: Slope = %g, want a fraction in (0, 1]", c.Slope)
-	case !(c.Curve > 0 && c.Curve <= 1):
-		return fmt.Errorf("grid: criteria: Curve = %g, want a fraction in (0, 1]", c.Curve)
-	case !(c.Prune >= 0 && c.Prune < 1):
-		return fmt.Errorf("grid: criteria: Prune = %g, want a fraction in [0, 1) (0 = off)", c.Prune)
+	case !(c.MaxSpacingRatio > 1) || math.IsInf(c.MaxSpacingRatio, 0):
+		return fmt.Errorf("grid: max_spacing_ratio = %g, want a finite value > 1", c.MaxSpacingRatio)
+	case !(c.MaxChange > 0 && c.MaxChange <= 1):
+		return fmt.Errorf("grid: max_change = %g, want a fraction in (0, 1]", c.MaxChange)
+	case !(c.MaxGradientChange > 0 && c.MaxGradientChange <= 1):
+		return fmt.Errorf("grid: max_gradient_change = %g, want a fraction in (0, 1]", c.MaxGradientChange)
+	case !(c.RemovalMargin >= 0 && c.RemovalMargin < 1):
+		return fmt.Errorf("grid: removal_margin = %g, want a fraction in [0, 1) (0 = off)", c.RemovalMargin)
 	case c.MaxPoints < 0:
-		return fmt.Errorf("grid: criteria: MaxPoints = %d, want >= 0 (0 = no limit)", c.MaxPoints)
+		return fmt.Errorf("grid: max_points = %d, want >= 0 (0 = no limit)", c.MaxPoints)
 	case !(c.MinRange >= 0) || math.IsInf(c.MinRange, 0):
-		return fmt.Errorf("grid: criteria: MinRange = %g, want a finite value >= 0", c.MinRange)
+		return fmt.Errorf("grid: smallest tested range = %g, want a finite value >= 0", c.MinRange)
 	}
 	return nil
 }
@@ -94,7 +96,7 @@ type Plan struct {
 	// point to add; len(Insert) is the number of points added. An interval
 	// listed once is split at its midpoint unless At says otherwise; one
 	// listed m times receives m points (Analyse does this only where a
-	// single split cannot meet the Ratio bound).
+	// single split cannot meet the MaxSpacingRatio bound).
 	Insert []int
 	// At, if it has the length of Insert, gives the position of each added
 	// point as a fraction of its interval, in (0, 1) and increasing within an
@@ -120,7 +122,7 @@ const (
 	ratioTol = 1e-6
 	flatTol  = 1e4 * 0x1p-52
 	// hardPointLimit stops the ratio enforcement when MaxPoints is 0 (no
-	// limit) and a Ratio close to 1 meets a badly graded grid.
+	// limit) and a MaxSpacingRatio close to 1 meets a badly graded grid.
 	hardPointLimit = 1 << 22
 )
 
@@ -136,27 +138,27 @@ const (
 // split at its midpoint; a point failing the curvature test has both of its
 // intervals split. Then, since splits create new neighbour ratios, points
 // are added until every pair of neighbouring intervals of the planned grid
-// satisfies the Ratio bound, cascading as far as needed:
+// satisfies the MaxSpacingRatio bound, cascading as far as needed:
 //
-//   - Ratio >= 2: an interval larger than Ratio times a neighbour is
+//   - MaxSpacingRatio >= 2: an interval larger than MaxSpacingRatio times a neighbour is
 //     bisected, recursively, so new points are graded geometrically (factor
 //     2) toward the finer neighbour; a mismatch h/h_nb costs about
-//     log2(h/(Ratio*h_nb)) points.
-//   - Ratio < 2, where bisection cannot always meet the bound: each interval
+//     log2(h/(MaxSpacingRatio*h_nb)) points.
+//   - MaxSpacingRatio < 2, where bisection cannot always meet the bound: each interval
 //     is divided into the least number of equal parts meeting it, found by
 //     monotone iteration (counts only grow and a uniformly fine grid is a
-//     solution); a mismatch costs about h/(Ratio*h_nb) points.
+//     solution); a mismatch costs about h/(MaxSpacingRatio*h_nb) points.
 //
 // If the input grid already satisfies the bound, both add at most one point
 // per interval, at its midpoint.
 //
-// Pruning (Criteria.Prune > 0), done after marking and ratio enforcement,
+// Pruning (Criteria.RemovalMargin > 0), done after marking and ratio enforcement,
 // walks the interior points left to right and removes point j when j is
 // neither an end point nor kept, neither of its intervals nor the intervals
 // beside them is split, the previous point was not removed, and on the grid
 // without j the merged interval satisfies the slope and curvature tests with
-// limits scaled by Prune and the Ratio bound against its neighbours. Since
-// Prune < 1, a pruned grid passes the next analysis unchanged unless the
+// limits scaled by RemovalMargin and the MaxSpacingRatio bound against its neighbours. Since
+// RemovalMargin < 1, a pruned grid passes the next analysis unchanged unless the
 // solution changes.
 //
 // A component is tested only if its range exceeds MinRange and the roundoff
@@ -196,8 +198,8 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 		}
 	}
 	for _, s := range a.tested {
-		a.markSlope(s, c.Slope)
-		a.markCurvature(s, c.Curve)
+		a.markSlope(s, c.MaxChange)
+		a.markCurvature(s, c.MaxGradientChange)
 	}
 	// The ratio enforcement stops well past MaxPoints, so that the error
 	// below can report the exact count in ordinary cases.
@@ -205,12 +207,12 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 	if c.MaxPoints > 0 {
 		limit = min(limit, 2*max(c.MaxPoints, n))
 	}
-	if !a.enforceRatio(c.Ratio, limit) {
-		return Plan{}, fmt.Errorf("%w: refinement needs more than %d points (%d now) to meet the Ratio bound %g; raise MaxPoints (%d), loosen Slope (%g) / Curve (%g), or start from a better graded grid",
-			ErrTooManyPoints, limit, n, c.Ratio, c.MaxPoints, c.Slope, c.Curve)
+	if !a.enforceRatio(c.MaxSpacingRatio, limit) {
+		return Plan{}, fmt.Errorf("%w: refinement needs more than %d points (%d now) to meet max_spacing_ratio = %g; raise [grid] max_points (%d), loosen max_change (%g) / max_gradient_change (%g), or start from a better graded grid",
+			ErrTooManyPoints, limit, n, c.MaxSpacingRatio, c.MaxPoints, c.MaxChange, c.MaxGradientChange)
 	}
 	var remove []int
-	if c.Prune > 0 {
+	if c.RemovalMargin > 0 {
 		remove = a.prune(keptPoints(x, keep), c)
 	}
 
@@ -231,8 +233,8 @@ func Analyse(x, u []float64, block int, components []int, keep []float64, c Crit
 		}
 	}
 	if newN := n + len(insert) - len(remove); len(insert) > 0 && c.MaxPoints > 0 && newN > c.MaxPoints {
-		return Plan{}, fmt.Errorf("%w: refinement needs %d points (%d now, +%d, -%d), more than MaxPoints = %d; raise MaxPoints or loosen Slope (%g) / Curve (%g)",
-			ErrTooManyPoints, newN, n, len(insert), len(remove), c.MaxPoints, c.Slope, c.Curve)
+		return Plan{}, fmt.Errorf("%w: refinement needs %d points (%d now, +%d, -%d), more than max_points = %d; raise [grid] max_points or loosen max_change (%g) / max_gradient_change (%g)",
+			ErrTooManyPoints, newN, n, len(insert), len(remove), c.MaxPoints, c.MaxChange, c.MaxGradientChange)
 	}
 	return Plan{Insert: insert, At: at, Remove: remove}, nil
 }
@@ -373,7 +375,7 @@ func (a *analysis) markCurvature(s scale, frac float64) {
 }
 
 // enforceRatio adds points until neighbouring intervals of the planned grid
-// satisfy the Ratio bound (see Analyse), filling a.cuts and a.split. It
+// satisfy the MaxSpacingRatio bound (see Analyse), filling a.cuts and a.split. It
 // reports false if that needs more than limit points.
 func (a *analysis) enforceRatio(ratio float64, limit int) bool {
 	r := ratio * (1 + ratioTol)
@@ -518,7 +520,7 @@ func (a *analysis) equalParts(r float64, limit int) bool {
 // prune selects points to remove (see Analyse).
 func (a *analysis) prune(kept []bool, c Criteria) []int {
 	n := len(a.x)
-	r := c.Ratio
+	r := c.MaxSpacingRatio
 	var remove []int
 	removedPrev := false
 	for j := 1; j+1 < n; j++ {
@@ -564,19 +566,19 @@ func (a *analysis) prune(kept []bool, c Criteria) []int {
 }
 
 // prunable reports whether every tested component meets the slope and
-// curvature tests, scaled by Prune, on the merged interval (j-1, j+1) and
+// curvature tests, scaled by RemovalMargin, on the merged interval (j-1, j+1) and
 // at its ends; pp is the point before j-1 on the pruned grid (-1 if none).
 func (a *analysis) prunable(j, pp int, merged float64, c Criteria) bool {
 	n := len(a.x)
 	for _, s := range a.tested {
 		du := a.value(j+1, s.comp) - a.value(j-1, s.comp)
-		if math.Abs(du) > c.Prune*c.Slope*s.rangeU {
+		if math.Abs(du) > c.RemovalMargin*c.MaxChange*s.rangeU {
 			return false
 		}
 		if s.rangeSlope == 0 {
 			continue
 		}
-		lim := c.Prune * c.Curve * s.rangeSlope
+		lim := c.RemovalMargin * c.MaxGradientChange * s.rangeSlope
 		sm := du / merged
 		if pp >= 0 {
 			sl := (a.value(j-1, s.comp) - a.value(pp, s.comp)) / (a.x[j-1] - a.x[pp])

@@ -43,7 +43,7 @@ func sample(f func(float64) float64, x []float64) []float64 {
 
 // refineUntilFixed refines x for the exact profile f until Refine reports no
 // change, re-evaluating f at every new point, and checks after every step
-// that the grid is strictly increasing and meets the Ratio bound.
+// that the grid is strictly increasing and meets the MaxSpacingRatio bound.
 func refineUntilFixed(t *testing.T, f func(float64) float64, x []float64, c Criteria, maxIter int) []float64 {
 	t.Helper()
 	for it := 0; it < maxIter; it++ {
@@ -55,8 +55,8 @@ func refineUntilFixed(t *testing.T, f func(float64) float64, x []float64, c Crit
 			return x
 		}
 		checkStrict(t, nx)
-		if r := maxNeighbourRatio(nx); r > c.Ratio*(1+ratioTol) {
-			t.Fatalf("refinement %d: neighbour ratio %g exceeds Ratio %g", it, r, c.Ratio)
+		if r := maxNeighbourRatio(nx); r > c.MaxSpacingRatio*(1+ratioTol) {
+			t.Fatalf("refinement %d: neighbour ratio %g exceeds MaxSpacingRatio %g", it, r, c.MaxSpacingRatio)
 		}
 		x = nx
 	}
@@ -105,7 +105,7 @@ func interpolationError(f func(float64) float64, x []float64, j int) float64 {
 //	curvature:  h|u''| <= KγS,  K = 2ρ/(1+ρ)    (|s_j - s_j-1| = |u''|(h_j + h_j-1)/2,
 //	                                              h_j-1 >= h_j/ρ)
 //
-// with σ = Slope, γ = Curve, ρ = Ratio, R = 2 the range of u and S <= 1/δ
+// with σ = MaxChange, γ = MaxGradientChange, ρ = MaxSpacingRatio, R = 2 the range of u and S <= 1/δ
 // the range of the interval slopes (each a mean of u' in (0, 1/δ]). Hence
 //
 //	e <= |u''| min(σR/|u'|, KγS/|u''|)² / 8,
@@ -113,13 +113,13 @@ func interpolationError(f func(float64) float64, x []float64, j int) float64 {
 // maximised here over |t| <= 1, where h is small against δ and the
 // expansion holds. For the default criteria it is 4.0e-3 (at |t| = 1).
 func frontErrorBound(c Criteria) float64 {
-	K := 2 * c.Ratio / (1 + c.Ratio)
+	K := 2 * c.MaxSpacingRatio / (1 + c.MaxSpacingRatio)
 	R, S := 2.0, 1/frontWidth
 	worst := 0.0
 	for k := -1000; k <= 1000; k++ {
 		x := frontX0 + frontWidth*float64(k)/1000
 		d1, d2 := math.Abs(frontD1(x)), math.Abs(frontD2(x))
-		h := math.Min(c.Slope*R/d1, K*c.Curve*S/d2)
+		h := math.Min(c.MaxChange*R/d1, K*c.MaxGradientChange*S/d2)
 		worst = math.Max(worst, d2*h*h/8)
 	}
 	return worst
@@ -133,8 +133,8 @@ func TestRefineTanhConverges(t *testing.T) {
 	var prevCore, prevAll float64
 	for i, scale := range []float64{1, 0.5, 0.25} {
 		c := base
-		c.Slope *= scale
-		c.Curve *= scale
+		c.MaxChange *= scale
+		c.MaxGradientChange *= scale
 		x := refineUntilFixed(t, front, Uniform(0, 1, 11), c, 60)
 		u := sample(front, x)
 		if p, err := Analyse(x, u, 1, nil, nil, c); err != nil || !p.Empty() {
@@ -159,18 +159,18 @@ func TestRefineTanhConverges(t *testing.T) {
 			// q - s_j are at most γS by the curvature test, and the gap
 			// between chord and tangents gives e <= h (s-p)(q-s)/(q-p)
 			// <= hγS/2 (elementary geometry of convex functions).
-			if e > c.Slope*2 {
-				t.Errorf("scale %g: interval %d error %.3g > σR = %.3g", scale, j, e, c.Slope*2)
+			if e > c.MaxChange*2 {
+				t.Errorf("scale %g: interval %d error %.3g > σR = %.3g", scale, j, e, c.MaxChange*2)
 			}
 			if j >= 1 && j+2 < len(x) && (x[j+2] < frontX0 || x[j-1] > frontX0) {
-				if b := (x[j+1] - x[j]) * c.Curve * (smax - smin) / 2; e > b {
+				if b := (x[j+1] - x[j]) * c.MaxGradientChange * (smax - smin) / 2; e > b {
 					t.Errorf("scale %g: interval %d error %.3g > hγS/2 = %.3g", scale, j, e, b)
 				}
 			}
 		}
 		bound := frontErrorBound(c)
-		t.Logf("Slope %.4g Curve %.4g: %d points, core error %.3g (bound %.3g), domain error %.3g",
-			c.Slope, c.Curve, len(x), core, bound, all)
+		t.Logf("MaxChange %.4g MaxGradientChange %.4g: %d points, core error %.3g (bound %.3g), domain error %.3g",
+			c.MaxChange, c.MaxGradientChange, len(x), core, bound, all)
 		if core > bound {
 			t.Errorf("scale %g: core error %.3g exceeds the leading-order bound %.3g", scale, core, bound)
 		}
@@ -190,13 +190,13 @@ func TestRefineTanhConverges(t *testing.T) {
 }
 
 // TestRefineConcentratesWhereCurvatureIsLarge refines the front with the
-// curvature test alone (Slope = 1 never binds on a profile of range 2 with
+// curvature test alone (MaxChange = 1 never binds on a profile of range 2 with
 // at least 3 points) and checks that the finest intervals sit where |u”| is
 // largest, at tanh t = ±1/√3, t = ±0.658, and not at the centre (u” = 0) or
 // in the flat tails.
 func TestRefineConcentratesWhereCurvatureIsLarge(t *testing.T) {
 	c := DefaultCriteria()
-	c.Slope = 1
+	c.MaxChange = 1
 	x := refineUntilFixed(t, front, Uniform(0, 1, 11), c, 60)
 	jmin := 0
 	for j := 0; j+1 < len(x); j++ {
@@ -237,7 +237,7 @@ func TestRefineConcentratesWhereCurvatureIsLarge(t *testing.T) {
 }
 
 // TestRefineRatioBound starts from badly graded grids (neighbour ratios up
-// to 50) and checks that a single Refine meets the Ratio bound everywhere,
+// to 50) and checks that a single Refine meets the MaxSpacingRatio bound everywhere,
 // for a flat solution (the ratio test alone acts) and for the front.
 func TestRefineRatioBound(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
@@ -252,18 +252,18 @@ func TestRefineRatioBound(t *testing.T) {
 		}
 		for _, ratio := range []float64{1.5, 2.5, 4} {
 			c := DefaultCriteria()
-			c.Ratio = ratio
+			c.MaxSpacingRatio = ratio
 			for name, f := range map[string]func(float64) float64{
 				"flat":  func(float64) float64 { return 1 },
 				"front": front,
 			} {
 				nx, _, _, err := Refine(x, sample(f, x), 1, nil, nil, c)
 				if err != nil {
-					t.Fatalf("trial %d, %s, Ratio %g: %v", trial, name, ratio, err)
+					t.Fatalf("trial %d, %s, MaxSpacingRatio %g: %v", trial, name, ratio, err)
 				}
 				checkStrict(t, nx)
 				if r := maxNeighbourRatio(nx); r > ratio*(1+ratioTol) {
-					t.Errorf("trial %d, %s: max neighbour ratio %g after Refine, Ratio %g (input %g)",
+					t.Errorf("trial %d, %s: max neighbour ratio %g after Refine, MaxSpacingRatio %g (input %g)",
 						trial, name, r, ratio, maxNeighbourRatio(x))
 				}
 				if nx[0] != x[0] || nx[len(nx)-1] != x[n-1] {
@@ -279,11 +279,11 @@ func TestRefineRatioBound(t *testing.T) {
 // the ratio test acts, against hand-derived closed forms. Sizes grow to the
 // right, so every interval must only fit its left neighbour's last piece.
 //
-// Ratio 2.5 (bisection): 10 next to 1 -> pieces 2.5, 2.5, 5; 100 next to 5
+// MaxSpacingRatio 2.5 (bisection): 10 next to 1 -> pieces 2.5, 2.5, 5; 100 next to 5
 // -> 12.5, 12.5, 25, 50; 1000 next to 50 -> 125, 125, 250, 500: 8 points,
 // at fractions 1/4, 1/2 and 1/8, 1/4, 1/2 (twice).
 //
-// Ratio 1.5 (equal parts): interval j needs parts_j = ceil(h_j/(1.5 s_j-1))
+// MaxSpacingRatio 1.5 (equal parts): interval j needs parts_j = ceil(h_j/(1.5 s_j-1))
 // with s_j-1 its left neighbour's part: 7, 47 and 314 parts, 365 points.
 func TestRefineRatioFromGradedInput(t *testing.T) {
 	x := []float64{0, 1, 11, 111, 1111}
@@ -295,9 +295,9 @@ func TestRefineRatioFromGradedInput(t *testing.T) {
 	}
 	want := Plan{Insert: []int{1, 1, 2, 2, 2, 3, 3, 3}, At: []float64{0.25, 0.5, 0.125, 0.25, 0.5, 0.125, 0.25, 0.5}}
 	if !reflect.DeepEqual(p, want) {
-		t.Errorf("Ratio 2.5: plan %+v, want %+v", p, want)
+		t.Errorf("MaxSpacingRatio 2.5: plan %+v, want %+v", p, want)
 	}
-	c.Ratio = 1.5
+	c.MaxSpacingRatio = 1.5
 	p, err = Analyse(x, u, 1, nil, nil, c)
 	if err != nil {
 		t.Fatal(err)
@@ -312,11 +312,11 @@ func TestRefineRatioFromGradedInput(t *testing.T) {
 		prev = h / parts
 	}
 	if !slices.Equal(p.Insert, wantInsert) || len(wantInsert) != 6+46+313 {
-		t.Errorf("Ratio 1.5: %d insertions, want %d (365)", len(p.Insert), len(wantInsert))
+		t.Errorf("MaxSpacingRatio 1.5: %d insertions, want %d (365)", len(p.Insert), len(wantInsert))
 	}
 	nx, _ := p.Apply(x, u, 1)
 	if r := maxNeighbourRatio(nx); r > 1.5*(1+ratioTol) {
-		t.Errorf("Ratio 1.5: neighbour ratio %g after Apply", r)
+		t.Errorf("MaxSpacingRatio 1.5: neighbour ratio %g after Apply", r)
 	}
 }
 
@@ -342,7 +342,7 @@ func TestAnalyseMaxPoints(t *testing.T) {
 		t.Fatalf("MaxPoints = %d: err = %v, want ErrTooManyPoints", need-1, err)
 	}
 	t.Logf("message: %v", err)
-	for _, s := range []string{fmt.Sprintf("needs %d points", need), "31 now", fmt.Sprintf("MaxPoints = %d", need-1), "raise MaxPoints", "Slope", "Curve"} {
+	for _, s := range []string{fmt.Sprintf("needs %d points", need), "31 now", fmt.Sprintf("max_points = %d", need-1), "raise [grid] max_points", "max_change", "max_gradient_change"} {
 		if !strings.Contains(err.Error(), s) {
 			t.Errorf("message %q lacks %q", err, s)
 		}
@@ -369,7 +369,7 @@ func overResolvedFront() []float64 { return Uniform(0, 1, 801) }
 // bound holds.
 func TestPruneCoarsensFlatKeepsFront(t *testing.T) {
 	c := DefaultCriteria()
-	c.Prune = 0.3
+	c.RemovalMargin = 0.3
 	x := refineUntilFixed(t, front, overResolvedFront(), c, 60)
 	u := sample(front, x)
 	inFlat := 0
@@ -380,7 +380,7 @@ func TestPruneCoarsensFlatKeepsFront(t *testing.T) {
 	}
 	core := 0.0
 	for j := 0; j+1 < len(x); j++ {
-		if math.Abs(u[j+1]-u[j]) > c.Slope*2 {
+		if math.Abs(u[j+1]-u[j]) > c.MaxChange*2 {
 			t.Errorf("interval %d: |Δu| = %.3g exceeds the slope limit", j, math.Abs(u[j+1]-u[j]))
 		}
 		if math.Abs(x[j]-frontX0) <= frontWidth && math.Abs(x[j+1]-frontX0) <= frontWidth {
@@ -419,7 +419,7 @@ func countWithin(x []float64, d float64) int {
 // grid, where every interior point is removable but for the kept ones.
 func TestPruneNeverRemovesKeptOrEndPoints(t *testing.T) {
 	c := DefaultCriteria()
-	c.Prune = 0.5
+	c.RemovalMargin = 0.5
 	x := Uniform(0, 1, 101)
 	keep := []float64{x[37], x[38], 0.5 + 1e-14, x[99]}
 	u := make([]float64, len(x))
@@ -446,7 +446,7 @@ func TestPruneNeverRemovesKeptOrEndPoints(t *testing.T) {
 	if len(x) > 30 {
 		t.Errorf("%d points left of 101 on a flat solution, want most pruned", len(x))
 	}
-	if r := maxNeighbourRatio(x); r > c.Ratio {
+	if r := maxNeighbourRatio(x); r > c.MaxSpacingRatio {
 		t.Errorf("pruning broke the ratio bound: %g", r)
 	}
 	t.Logf("flat solution pruned to %d points: %v", len(x), x)
@@ -456,7 +456,7 @@ func TestPruneNeverRemovesKeptOrEndPoints(t *testing.T) {
 // split in the same call is removed.
 func TestPruneNeverUndoesRefinement(t *testing.T) {
 	c := DefaultCriteria()
-	c.Prune = 0.9
+	c.RemovalMargin = 0.9
 	x := Uniform(0, 1, 201)
 	p, err := Analyse(x, sample(front, x), 1, nil, nil, c)
 	if err != nil {
@@ -524,7 +524,7 @@ func TestLinearProfileNotRefined(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
 	x := make([]float64, 60)
 	for j := 1; j < len(x); j++ {
-		x[j] = x[j-1] + 1 + rng.Float64() // ratios < 2, |Δu|/R < 2/60 < Slope
+		x[j] = x[j-1] + 1 + rng.Float64() // ratios < 2, |Δu|/R < 2/60 < MaxChange
 	}
 	u := sample(func(v float64) float64 { return 1e5 + 3.7*v }, x)
 	p, err := Analyse(x, u, 1, nil, nil, DefaultCriteria())
@@ -538,7 +538,7 @@ func TestLinearProfileNotRefined(t *testing.T) {
 // the inputs are left untouched.
 func TestAnalyseDeterministic(t *testing.T) {
 	c := DefaultCriteria()
-	c.Prune = 0.3
+	c.RemovalMargin = 0.3
 	x := Uniform(0, 1, 301)
 	u := make([]float64, 2*len(x))
 	for j, v := range x {
@@ -579,12 +579,12 @@ func TestAnalyseRejectsBadInput(t *testing.T) {
 		{"zero block", []float64{0, 1}, nil, 0, nil, good, "block"},
 		{"component out of range", []float64{0, 1}, []float64{0, 0}, 1, []int{1}, good, "component 1"},
 		{"negative component", []float64{0, 1}, []float64{0, 0}, 1, []int{-1}, good, "component -1"},
-		{"Ratio 1", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.Ratio = 1 }), "Ratio"},
-		{"Slope 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.Slope = 0 }), "Slope"},
-		{"Curve NaN", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.Curve = nan }), "Curve"},
-		{"Prune 1", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.Prune = 1 }), "Prune"},
-		{"MaxPoints < 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MaxPoints = -1 }), "MaxPoints"},
-		{"MinRange < 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MinRange = -1 }), "MinRange"},
+		{"MaxSpacingRatio 1", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MaxSpacingRatio = 1 }), "max_spacing_ratio"},
+		{"MaxChange 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MaxChange = 0 }), "max_change"},
+		{"MaxGradientChange NaN", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MaxGradientChange = nan }), "max_gradient_change"},
+		{"RemovalMargin 1", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.RemovalMargin = 1 }), "removal_margin"},
+		{"MaxPoints < 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MaxPoints = -1 }), "max_points"},
+		{"MinRange < 0", []float64{0, 1}, []float64{0, 0}, 1, nil, with(func(c *Criteria) { c.MinRange = -1 }), "smallest tested range"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -614,10 +614,10 @@ func TestAnalyseLimits(t *testing.T) {
 		t.Errorf("sub-resolution interval: err = %v, want a float64 resolution error", err)
 	}
 	c := DefaultCriteria()
-	c.MaxPoints, c.Ratio = 0, 1.01
+	c.MaxPoints, c.MaxSpacingRatio = 0, 1.01
 	_, err = Analyse([]float64{0, 1e-9, 1}, make([]float64, 3), 1, nil, nil, c)
 	if !errors.Is(err, ErrTooManyPoints) {
-		t.Errorf("Ratio 1.01 across a 1e9 jump without MaxPoints: err = %v, want ErrTooManyPoints", err)
+		t.Errorf("MaxSpacingRatio 1.01 across a 1e9 jump without MaxPoints: err = %v, want ErrTooManyPoints", err)
 	}
 }
 
@@ -653,7 +653,7 @@ func BenchmarkAnalyse(b *testing.B) {
 		}
 	}
 	c := DefaultCriteria()
-	c.Prune = 0.2
+	c.RemovalMargin = 0.2
 	b.ResetTimer()
 	for b.Loop() {
 		if _, err := Analyse(x, u, block, nil, []float64{0.006}, c); err != nil {

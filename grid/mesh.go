@@ -20,7 +20,7 @@ func Uniform(x0, x1 float64, n int) []float64 {
 // Growth of the spacing per unit distance outside the clustered zone of
 // Clustered, and the cap of its spacing as a multiple of the uniform spacing.
 // A spacing h(d) = hf + clusterGrowth*d makes neighbouring intervals differ by
-// a factor of about 1 + clusterGrowth = 1.2, well inside the usual Ratio
+// a factor of about 1 + clusterGrowth = 1.2, well inside the usual MaxSpacingRatio
 // bounds; the cap keeps at least a quarter of the uniform point density in
 // the far field (design choices, no source).
 const (

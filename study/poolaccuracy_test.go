@@ -20,7 +20,7 @@ import (
 // fuel is gaseous over the whole range.
 const heptaneCase = `
 title = "n-heptane/air: detailed fuel against its cracked-pool representation"
-mechanism = "nheptane-sk68"
+mechanism = "lu2009-heptane"
 [mixture]
 fuel = { nc7h16 = 1 }
 equivalence_ratio = 1.0
@@ -52,7 +52,7 @@ func runPoolAccuracy(t *testing.T, phis []float64) *accuracyRun {
 	if err != nil {
 		t.Fatal(err)
 	}
-	mech, err := builtin.Mechanism("nheptane-sk68")
+	mech, err := builtin.Mechanism("lu2009-heptane")
 	if err != nil {
 		t.Fatal(err)
 	}

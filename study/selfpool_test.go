@@ -21,7 +21,7 @@ func TestNeatFuelAsItsOwnPool(t *testing.T) {
 		t.Skip("methane flames")
 	}
 	c, err := casefile.Parse([]byte(`
-mechanism = "gri30"
+mechanism = "smith1999-natgas"
 [mixture]
 fuel = { CH4 = 1 }
 equivalence_ratio = 1.0
@@ -30,7 +30,7 @@ temperature = "298 K"
 	if err != nil {
 		t.Fatal(err)
 	}
-	mech, err := builtin.Mechanism("gri30")
+	mech, err := builtin.Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatal(err)
 	}

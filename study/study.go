@@ -110,16 +110,16 @@ func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
 	if g.InitialPoints > 0 {
 		s.InitialPoints = g.InitialPoints
 	}
-	if g.Slope > 0 {
-		s.Grid.Slope = g.Slope
+	if g.MaxChange > 0 {
+		s.Grid.MaxChange = g.MaxChange
 	}
-	if g.Curve > 0 {
-		s.Grid.Curve = g.Curve
+	if g.MaxGradientChange > 0 {
+		s.Grid.MaxGradientChange = g.MaxGradientChange
 	}
-	if g.Ratio > 0 {
-		s.Grid.Ratio = g.Ratio
+	if g.MaxSpacingRatio > 0 {
+		s.Grid.MaxSpacingRatio = g.MaxSpacingRatio
 	}
-	s.Grid.Prune = g.Prune
+	s.Grid.RemovalMargin = g.RemovalMargin
 	if g.MaxPoints > 0 {
 		s.Grid.MaxPoints = g.MaxPoints
 	}

@@ -67,7 +67,7 @@ func mustRecords(b *testing.B, dir string) map[int]*Record {
 // BenchmarkMethaneSweep is the reference sweep: 13 CH4/air flames, phi
 // 0.6-1.8, 298 K, 1 atm, GRI-Mech 3.0 (examples/sweeps/methane-phi.toml).
 func BenchmarkMethaneSweep(b *testing.B) {
-	benchmarkSweep(b, `mechanism = "gri30"
+	benchmarkSweep(b, `mechanism = "smith1999-natgas"
 [mixture]
 fuel = { CH4 = 1.0 }
 equivalence_ratio = 1.0
@@ -79,9 +79,9 @@ equivalence_ratio = { from = 0.6, to = 1.8, step = 0.1 }
 }
 
 // BenchmarkHydrogenSweep is a quick sweep: 11 H2/air flames, phi 0.6-1.6,
-// 298 K, 1 atm, h2o2.
+// 298 K, 1 atm, burke2012-hydrogen.
 func BenchmarkHydrogenSweep(b *testing.B) {
-	benchmarkSweep(b, `mechanism = "h2o2"
+	benchmarkSweep(b, `mechanism = "burke2012-hydrogen"
 [mixture]
 fuel = { H2 = 1.0 }
 equivalence_ratio = 1.0

@@ -25,7 +25,7 @@ import (
 // Its flame speed is a smooth function of the condition plus 1e-9 times the
 // equivalence ratio of the state it started from, so a point solved from a
 // different start than expected changes the results table. Its solutions
-// live on the h2o2 mechanism so that study.WriteFlame can write them; the
+// live on the burke2012-hydrogen mechanism so that study.WriteFlame can write them; the
 // equivalence ratio is kept in AnchorX, which the restart file carries.
 type fakeSolver struct {
 	calls *atomic.Int64
@@ -34,7 +34,7 @@ type fakeSolver struct {
 	fail func(c study.Condition, start *flame.Solution) error
 }
 
-var fakeMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return builtin.Load("h2o2") })
+var fakeMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return builtin.Load("burke2012-hydrogen") })
 
 func (f *fakeSolver) ReadStart(dir string) (*flame.Solution, error) {
 	file, err := os.Open(filepath.Join(dir, restartName))
@@ -95,11 +95,11 @@ func fakeOptions(jobs int, fail func(study.Condition, *flame.Solution) error) (O
 	}}, calls
 }
 
-// sweepCase parses a case on the built-in h2o2 mechanism with the given
+// sweepCase parses a case on the built-in burke2012-hydrogen mechanism with the given
 // [sweep] table.
 func sweepCase(t testing.TB, sweepTable string) *casefile.Case {
 	t.Helper()
-	src := "title = \"test sweep\"\nmechanism = \"h2o2\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1.0\ntemperature = \"298 K\"\n[sweep]\n" + sweepTable + "\n"
+	src := "title = \"test sweep\"\nmechanism = \"burke2012-hydrogen\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1.0\ntemperature = \"298 K\"\n[sweep]\n" + sweepTable + "\n"
 	c, err := casefile.Parse([]byte(src), filepath.Join(t.TempDir(), "case.toml"))
 	if err != nil {
 		t.Fatal(err)

@@ -14,7 +14,7 @@ import (
 	"flame1d/study"
 )
 
-// Tests on real flames: hydrogen/air on the built-in h2o2 mechanism (Burke
+// Tests on real flames: hydrogen/air on the built-in burke2012-hydrogen mechanism (Burke
 // et al. 2012), about 0.1-0.5 s a flame.
 
 // countingSolver counts the solves of a real study.

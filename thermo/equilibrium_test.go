@@ -140,7 +140,7 @@ func massActionResidual(m *chem.Mechanism, s *thermo.SpeciesSet, r *thermo.Equil
 }
 
 func TestEquilibriumLawOfMassAction(t *testing.T) {
-	m, s := gri30Mechanism(t)
+	m, s := natgasMechanism(t)
 	states := []struct {
 		label string
 		phi   float64
@@ -180,7 +180,7 @@ func TestEquilibriumLawOfMassAction(t *testing.T) {
 }
 
 func TestAdiabaticFlameTemperature(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	// Stoichiometric fuel/air (21 % O2, 79 % N2) from 298 K at 1 atm, full
 	// equilibrium: CH4 2226 K, H2 2383 K (Turns, An Introduction to
 	// Combustion, 3rd ed. 2012, and Glassman & Yetter, Combustion, 4th ed.
@@ -240,7 +240,7 @@ func TestAdiabaticFlameTemperature(t *testing.T) {
 }
 
 func TestEquilibriumAnalyticCases(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	only := func(names ...string) []bool {
 		mask := make([]bool, s.Len())
 		for k := range mask {
@@ -287,7 +287,7 @@ func TestEquilibriumAnalyticCases(t *testing.T) {
 }
 
 func TestEquilibriumRobustness(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	type state struct {
 		label string
 		n     []float64
@@ -354,7 +354,7 @@ func fmtT(T float64) string { return strconv.FormatFloat(T, 'g', -1, 64) + " K" 
 
 func TestEquilibriumGraphite(t *testing.T) {
 	extra := sharedThermo(t, "thermo-extra")
-	s0 := gri30Set(t).Species
+	s0 := natgasSet(t).Species
 	var graphite *thermo.Species
 	for i := range extra {
 		if extra[i].Name == "CSOLID" {
@@ -421,7 +421,7 @@ func TestEquilibriumGraphite(t *testing.T) {
 }
 
 func TestEquilibriumExclusion(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	X := premixed(t, s, map[string]float64{"CH4": 1}, air2179, 1)
 	var names []string
 	for _, sp := range s.Species {
@@ -468,7 +468,7 @@ func TestEquilibriumExclusion(t *testing.T) {
 }
 
 func TestEquilibriumInputErrors(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	X := premixed(t, s, map[string]float64{"CH4": 1}, air2179, 1)
 	neg := append([]float64(nil), X...)
 	neg[0] = -1
@@ -511,7 +511,7 @@ func TestEquilibriumInputErrors(t *testing.T) {
 }
 
 func BenchmarkAdiabaticFlameGRI30(b *testing.B) {
-	s := gri30Set(b)
+	s := natgasSet(b)
 	X, err := s.PremixedMoleFractions(moles(b, s, map[string]float64{"CH4": 1}), moles(b, s, dryAir), 1)
 	if err != nil {
 		b.Fatal(err)
@@ -528,7 +528,7 @@ func BenchmarkAdiabaticFlameGRI30(b *testing.B) {
 // asserts the optimality conditions and element balance of each: a
 // regression guard for the step control and the singular-matrix fallbacks.
 func TestEquilibriumRandomStates(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	rng := rand.New(rand.NewSource(1))
 	names := []string{"CH4", "O2", "N2", "H2", "H2O", "CO2", "AR", "C2H6", "CO", "NH3", "HCN", "C2H2", "CH3OH", "NO2", "OH", "O", "H", "N2O"}
 	trials := 4000
@@ -568,7 +568,7 @@ func TestEquilibriumRandomStates(t *testing.T) {
 }
 
 func BenchmarkTemperatureFromEnthalpyGRI30(b *testing.B) {
-	s := gri30Set(b)
+	s := natgasSet(b)
 	r, err := s.AdiabaticFlame(298.15, thermo.OneAtmosphere, premixed(b, s, map[string]float64{"CH4": 1}, dryAir, 1), thermo.EquilibriumOptions{})
 	if err != nil {
 		b.Fatal(err)

@@ -73,7 +73,7 @@ func janafTolerance(species string, T float64, quantity string) float64 {
 // TestSpeciesThermoAgainstJANAF checks the GRI-Mech 3.0 thermo data that
 // flame1d ships (package builtin) against the JANAF tables.
 func TestSpeciesThermoAgainstJANAF(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	for _, r := range janaf {
 		sp := &s.Species[s.Index(r.species)]
 		cp := sp.CpMole(r.T)
@@ -101,7 +101,7 @@ func TestSpeciesThermoAgainstJANAF(t *testing.T) {
 }
 
 func TestFormationEnthalpiesAgainstJANAF(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	// JANAF Thermochemical Tables, 4th ed. (Chase 1998), Δh_f°(298.15 K) in
 	// kJ/mol, from memory. Bound 0.3 kJ/mol, except OH: JANAF gives 38.987 ±
 	// 1.2 kJ/mol and GRI-Mech 3.0 carries 39.35 kJ/mol (a later
@@ -127,7 +127,7 @@ func TestFormationEnthalpiesAgainstJANAF(t *testing.T) {
 }
 
 func TestHeatingValues(t *testing.T) {
-	s := gri30Set(t)
+	s := natgasSet(t)
 	// Lower and higher heating values in MJ/kg at 298.15 K: Turns, An
 	// Introduction to Combustion, 3rd ed. (2012), Appendix B, Table B.1
 	// (from memory): CH4 50.016 / 55.528, H2 119.95 / 141.79, C3H8 46.357 /

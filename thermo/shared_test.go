@@ -35,12 +35,12 @@ func sharedThermo(t testing.TB, set string) []thermo.Species {
 	return sp
 }
 
-// gri30Set is the species set of the shipped GRI-Mech 3.0 (package
+// natgasSet is the species set of the shipped GRI-Mech 3.0 (package
 // builtin): the checks against reference tables are about the data flame1d
 // ships.
-func gri30Set(t testing.TB) *thermo.SpeciesSet {
+func natgasSet(t testing.TB) *thermo.SpeciesSet {
 	t.Helper()
-	_, s := gri30Mechanism(t)
+	_, s := natgasMechanism(t)
 	return s
 }
 
@@ -57,11 +57,11 @@ func moles(t testing.TB, s *thermo.SpeciesSet, pairs map[string]float64) []float
 	return n
 }
 
-// gri30Mechanism returns the shipped GRI-Mech 3.0 with a species set in
+// natgasMechanism returns the shipped GRI-Mech 3.0 with a species set in
 // the same species order.
-func gri30Mechanism(t testing.TB) (*chem.Mechanism, *thermo.SpeciesSet) {
+func natgasMechanism(t testing.TB) (*chem.Mechanism, *thermo.SpeciesSet) {
 	t.Helper()
-	m, err := builtin.Mechanism("gri30")
+	m, err := builtin.Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatalf("built-in GRI-Mech 3.0: %v", err)
 	}

@@ -24,7 +24,7 @@ func airMethane(m *chem.Mechanism) []float64 {
 // a new temperature each call (so the per-T species and pair fits are
 // re-evaluated). Target: <= 20 us.
 func BenchmarkMixture(b *testing.B) {
-	m, tr := gri30(b)
+	m, tr := natgas(b)
 	X := airMethane(m)
 	K := len(X)
 	out := transport.MixtureProperties{Diffusion: make([]float64, K), ThermalDiffusionRatios: make([]float64, K)}
@@ -38,7 +38,7 @@ func BenchmarkMixture(b *testing.B) {
 // BenchmarkMixtureSameT measures Mixture at a fixed temperature (a Jacobian
 // column of the flame solver), where only the mixing rules run.
 func BenchmarkMixtureSameT(b *testing.B) {
-	m, tr := gri30(b)
+	m, tr := natgas(b)
 	X := airMethane(m)
 	K := len(X)
 	out := transport.MixtureProperties{Diffusion: make([]float64, K), ThermalDiffusionRatios: make([]float64, K)}
@@ -50,7 +50,7 @@ func BenchmarkMixtureSameT(b *testing.B) {
 
 // BenchmarkNew measures building the Model (all fits) for GRI-Mech 3.0.
 func BenchmarkNew(b *testing.B) {
-	m, _ := gri30(b)
+	m, _ := natgas(b)
 	for b.Loop() {
 		if _, err := transport.New(m, transport.Options{}); err != nil {
 			b.Fatal(err)

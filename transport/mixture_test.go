@@ -37,7 +37,7 @@ func checkFinite(t *testing.T, what string, out transport.MixtureProperties) {
 // whole range, for every quantity; checked here independently of the
 // model's own error grid at off-grid temperatures for pure species.
 func TestFitError(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	if e := tr.MaxFitError(); e >= 0.005 || e <= 0 {
 		t.Fatalf("MaxFitError = %.3g, want 0 < e < 0.005", e)
 	} else {
@@ -70,7 +70,7 @@ func TestFitError(t *testing.T) {
 // In the trace limit of a binary mixture, D_1m -> D_12 (the formula's
 // numerator 1 - Y_1 -> 1, denominator X_2/D_12 -> 1/D_12).
 func TestTraceLimit(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	K := len(m.Species)
 	h2, n2 := index(t, m, "H2"), index(t, m, "N2")
 	for _, T := range []float64{300, 1500} {
@@ -93,7 +93,7 @@ func TestTraceLimit(t *testing.T) {
 // Mixture properties stay finite, positive and continuous when species are
 // absent, pure, or slightly negative (a Newton iterate).
 func TestCompositionLimits(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	K := len(m.Species)
 	ch4, o2, n2 := index(t, m, "CH4"), index(t, m, "O2"), index(t, m, "N2")
 	base := func() []float64 {
@@ -151,7 +151,7 @@ func TestCompositionLimits(t *testing.T) {
 // with the documented sign), proportional to X_1 X_2 in a binary mixture,
 // and of the size measured for H2-N2.
 func TestThermalDiffusionRatios(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	K := len(m.Species)
 	h2, n2 := index(t, m, "H2"), index(t, m, "N2")
 	theta := make([]float64, K)
@@ -187,7 +187,7 @@ func TestThermalDiffusionRatios(t *testing.T) {
 // Mixture and the single-property methods agree; Clone gives the same
 // numbers from its own work arrays.
 func TestMixtureConsistency(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	X := airMethane(m)
 	K := len(X)
 	out := transportMixture(t, tr, 1500, 2*atm, X, nil)
@@ -213,7 +213,7 @@ func TestMixtureConsistency(t *testing.T) {
 }
 
 func TestMixtureAllocations(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	X := airMethane(m)
 	K := len(X)
 	out := transport.MixtureProperties{Diffusion: make([]float64, K), ThermalDiffusionRatios: make([]float64, K)}
@@ -228,7 +228,7 @@ func TestMixtureAllocations(t *testing.T) {
 }
 
 func TestNewErrors(t *testing.T) {
-	m, _ := gri30(t)
+	m, _ := natgas(t)
 	bad := &chem.Mechanism{Species: append([]chem.Species(nil), m.Species[:3]...)}
 	bad.Species[1].Transport = nil
 	if _, err := transport.New(bad, transport.Options{}); err == nil {

@@ -43,7 +43,7 @@ func iapwsDiluteSteam(T float64) float64 {
 }
 
 func TestSpeciesViscosity(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	// Tolerances: the Chapman-Enskog first approximation on the GRI-Mech
 	// Lennard-Jones parameters (fitted to viscosity and second virial data
 	// decades ago) is typically within 1-2% of reference data for these
@@ -108,7 +108,7 @@ func TestSpeciesViscosity(t *testing.T) {
 }
 
 func TestSpeciesConductivity(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	// Values in W/(m K). 5% tolerance: the Mason-Monchick/Warnatz treatment
 	// of internal energy transport is approximate for polyatomic molecules
 	// (a fixed collision number Z_rot with Parker's T dependence, the
@@ -148,7 +148,7 @@ func TestSpeciesConductivity(t *testing.T) {
 }
 
 func TestBinaryDiffusion(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	// Measured values at 1 atm (from memory), m^2/s: Marrero & Mason, J.
 	// Phys. Chem. Ref. Data 1 (1972) 3, recommended values at 300 K; CO2-N2
 	// from Cussler, Diffusion (2nd ed. 1997), Table 5.1-1, at 298 K. 5%:
@@ -188,7 +188,7 @@ func TestBinaryDiffusion(t *testing.T) {
 
 // Wilke's rule for air against the air reference viscosity.
 func TestAirViscosity(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	X := make([]float64, len(m.Species))
 	X[index(t, m, "O2")] = 0.21
 	X[index(t, m, "N2")] = 0.79
@@ -213,7 +213,7 @@ func TestAirViscosity(t *testing.T) {
 // practice, no source); bands below are those values with room for the
 // model's few-percent errors in lambda and D.
 func TestLewisNumbers(t *testing.T) {
-	m, tr := gri30(t)
+	m, tr := natgas(t)
 	K := len(m.Species)
 	X := make([]float64, K)
 	X[index(t, m, "CH4")] = 0.095

@@ -102,7 +102,7 @@ every species above 1e-30 and the element potentials.
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&req.Mechanism, "mechanism", "gri30", "built-in mechanism name or mechanism file (flame1d TOML)")
+	f.StringVar(&req.Mechanism, "mechanism", "smith1999-natgas", "built-in mechanism name or mechanism file (flame1d TOML)")
 	f.StringVar(&req.Fuel, "fuel", "CH4", `fuel mole fractions, e.g. "CH4" or "CH4:0.9,C2H6:0.1"`)
 	f.StringVar(&req.Oxidizer, "oxidizer", "O2:0.21,N2:0.79", "oxidizer mole fractions")
 	f.Float64Var(&req.Phi, "phi", 1, "equivalence ratio")

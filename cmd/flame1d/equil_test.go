@@ -26,7 +26,7 @@ func runEquil(t *testing.T, args ...string) (string, error) {
 }
 
 func TestEquilCommandMatchesLibrary(t *testing.T) {
-	m, err := builtin.Mechanism("gri30")
+	m, err := builtin.Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatal(err)
 	}

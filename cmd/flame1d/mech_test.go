@@ -84,9 +84,9 @@ func TestMechImport(t *testing.T) {
 	if err := os.WriteFile(cite, []byte("Burke et al., Int. J. Chem. Kinet. 44 (2012) 444\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	out := filepath.Join(dir, "h2o2.toml")
+	out := filepath.Join(dir, "hydrogen.toml")
 	o := mechImportOptions{reactions: filepath.Join(d, "mech.inp"), transport: filepath.Join(d, "transport.dat"),
-		output: out, name: "burke-h2o2", descriptionFile: cite}
+		output: out, name: "burke2012-hydrogen-copy", descriptionFile: cite}
 	var stdout, stderr bytes.Buffer
 	if err := runMechImport(&stdout, &stderr, o); err != nil {
 		t.Fatalf("%v\n%s", err, stderr.String())
@@ -99,7 +99,7 @@ func TestMechImport(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if back.Name != "burke-h2o2" || !strings.HasPrefix(back.Description, "Burke et al.") ||
+	if back.Name != "burke2012-hydrogen-copy" || !strings.HasPrefix(back.Description, "Burke et al.") ||
 		!strings.Contains(back.Description, "Imported by flame1d from mech.inp, transport.dat") {
 		t.Errorf("name %q description %q", back.Name, back.Description)
 	}
@@ -157,14 +157,14 @@ func TestMechBinary(t *testing.T) {
 	if err := os.WriteFile(broken, []byte(brokenMech), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	toml := filepath.Join(dir, "gri30.toml")
+	toml := filepath.Join(dir, "natgas.toml")
 	tests := []struct {
 		name     string
 		args     []string
 		exitCode int
 		want     string
 	}{
-		{"import gri30", []string{"mech", "import", "-r", filepath.Join(d, "gri30", "mech.inp"), "--thermo", filepath.Join(d, "gri30", "thermo.dat"),
+		{"import GRI-Mech 3.0", []string{"mech", "import", "-r", filepath.Join(d, "gri30", "mech.inp"), "--thermo", filepath.Join(d, "gri30", "thermo.dat"),
 			"--transport", filepath.Join(d, "gri30", "transport.dat"), "-o", toml}, 0, "53 species, 325 reactions"},
 		{"check the TOML file", []string{"mech", "check", toml}, 0, "problems: 0 error(s), 0 warning(s)"},
 		{"check a broken file", []string{"mech", "check", broken}, 1, "unknown species 'OH2'"},

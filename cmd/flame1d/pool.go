@@ -64,12 +64,12 @@ inlet at --phi and --T (in pre-cracked mode with the lowered inlet
 temperature). No flame is solved. Every key is described in docs/fuels.md.
 
 The mechanism is --mechanism, else the file's top-level mechanism key
-(relative to the file), else gri30.
+(relative to the file), else smith1999-natgas.
 
 ` + output.SafetyNote,
 		Example: `  flame1d pool examples/fuels/kerosenes.toml
   flame1d pool examples/fuels/kerosenes.toml --fuel syn-kerosene --phi 0.8 --T "500 K"
-  flame1d pool fuels.toml --mechanism nheptane-sk68 --json > pools.json`,
+  flame1d pool fuels.toml --mechanism lu2009-heptane --json > pools.json`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			return runPool(cmd.OutOrStdout(), args[0], o)
@@ -98,7 +98,7 @@ func mechanismFor(flag, key, file string) (*chem.Mechanism, error) {
 		}
 	}
 	if name == "" {
-		name = "gri30"
+		name = "smith1999-natgas"
 	}
 	m, err := builtin.Load(name)
 	if err != nil {

@@ -66,7 +66,7 @@ func TestPoolCommandJSON(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &doc); err != nil {
 		t.Fatalf("not JSON: %v\n%s", err, out)
 	}
-	if doc.Mechanism != "nheptane-sk68" || len(doc.Fuels) != 1 {
+	if doc.Mechanism != "lu2009-heptane" || len(doc.Fuels) != 1 {
 		t.Fatalf("mechanism %q, %d fuels", doc.Mechanism, len(doc.Fuels))
 	}
 	f := doc.Fuels[0]

@@ -37,7 +37,7 @@ func TestRunWritesResults(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solve")
 	}
-	c := writeCase(t, "mechanism = \"h2o2\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1.0\ntemperature = \"298 K\"\npressure = \"1 atm\"\n")
+	c := writeCase(t, "mechanism = \"burke2012-hydrogen\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1.0\ntemperature = \"298 K\"\npressure = \"1 atm\"\n")
 	dir := filepath.Join(t.TempDir(), "out")
 	stdout, stderr, err := runRun(t, c, "-o", dir, "--json")
 	if err != nil {
@@ -91,7 +91,7 @@ func TestRunWritesResults(t *testing.T) {
 // A mixture that cannot burn exits with an error that says so and writes
 // nothing; a case file with a typo names the key and line.
 func TestRunFailuresWriteNothing(t *testing.T) {
-	c := writeCase(t, "mechanism = \"h2o2\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 0.02\n")
+	c := writeCase(t, "mechanism = \"burke2012-hydrogen\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 0.02\n")
 	dir := filepath.Join(t.TempDir(), "out")
 	if _, _, err := runRun(t, c, "-o", dir, "-q"); err == nil || !strings.Contains(err.Error(), "not flammable") {
 		t.Errorf("non-flammable mixture: error %v", err)
@@ -99,7 +99,7 @@ func TestRunFailuresWriteNothing(t *testing.T) {
 	if _, err := os.Stat(dir); !os.IsNotExist(err) {
 		t.Errorf("a failed run created %s", dir)
 	}
-	typo := writeCase(t, "mechanism = \"h2o2\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1\npresure = \"1 atm\"\n")
+	typo := writeCase(t, "mechanism = \"burke2012-hydrogen\"\n[mixture]\nfuel = { H2 = 1 }\nequivalence_ratio = 1\npresure = \"1 atm\"\n")
 	if _, _, err := runRun(t, typo, "-q"); err == nil || !strings.Contains(err.Error(), "case.toml:5: mixture.presure: unknown key") {
 		t.Errorf("typo: error %v", err)
 	}

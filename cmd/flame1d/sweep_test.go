@@ -24,7 +24,7 @@ func buildFlame1d(t *testing.T) string {
 }
 
 const killCase = `title = "kill test"
-mechanism = "h2o2"
+mechanism = "burke2012-hydrogen"
 [mixture]
 fuel = { H2 = 1.0 }
 equivalence_ratio = 1.0

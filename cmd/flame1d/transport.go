@@ -93,7 +93,7 @@ Give the composition either as mole fractions, --X "CH4:0.095,O2:0.19,N2:0.715"
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&req.Mechanism, "mechanism", "gri30", "built-in mechanism name or mechanism file (flame1d TOML)")
+	f.StringVar(&req.Mechanism, "mechanism", "smith1999-natgas", "built-in mechanism name or mechanism file (flame1d TOML)")
 	f.StringVar(&req.X, "X", "", `mole fractions, e.g. "CH4:0.095,O2:0.19,N2:0.715"`)
 	f.StringVar(&req.Fuel, "fuel", "", `fuel for a premixed charge, e.g. "CH4" or "CH4:0.9,C2H6:0.1"`)
 	f.StringVar(&req.Oxidizer, "oxidizer", "O2:0.21,N2:0.79", "oxidizer for a premixed charge (mole fractions)")

@@ -13,7 +13,7 @@ import (
 // (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, Table A.4,
 // from memory). The model's mu, lambda and cp are each within ~2%, so 4%.
 func TestTransportAir(t *testing.T) {
-	m, err := builtin.Mechanism("gri30")
+	m, err := builtin.Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -40,7 +40,7 @@ func TestTransportAir(t *testing.T) {
 }
 
 func TestTransportRequestErrors(t *testing.T) {
-	m, err := builtin.Mechanism("gri30")
+	m, err := builtin.Mechanism("smith1999-natgas")
 	if err != nil {
 		t.Fatal(err)
 	}

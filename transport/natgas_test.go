@@ -16,13 +16,13 @@ var gri struct {
 	err   error
 }
 
-// gri30 returns the built-in GRI-Mech 3.0 (Smith et al. 1999; thermo and
+// natgas returns the built-in GRI-Mech 3.0 (Smith et al. 1999; thermo and
 // transport data as released, converted by the importer) and a Model fitted
 // on the default range.
-func gri30(t testing.TB) (*chem.Mechanism, *transport.Model) {
+func natgas(t testing.TB) (*chem.Mechanism, *transport.Model) {
 	t.Helper()
 	gri.once.Do(func() {
-		gri.mech, gri.err = builtin.Mechanism("gri30")
+		gri.mech, gri.err = builtin.Mechanism("smith1999-natgas")
 		if gri.err == nil {
 			gri.model, gri.err = transport.New(gri.mech, transport.Options{})
 		}
