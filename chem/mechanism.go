@@ -18,6 +18,21 @@ type Mechanism struct {
 	Elements    []string // element symbols, upper case, in declaration order
 	Species     []Species
 	Reactions   []Reaction
+	// Validity says which fuels and conditions the mechanism was built and
+	// validated for, as its publication states; nil when unknown.
+	Validity *Validity
+}
+
+// Validity is the range a mechanism's authors built and validated it for
+// (fuels, unburned temperature, pressure, equivalence ratio), with the
+// source of that statement. Users are warned when a flame lies outside it.
+// A zero range bound means "not stated".
+type Validity struct {
+	Fuels            []string   // mechanism species names of the fuels it was validated for
+	Temperature      [2]float64 // unburned temperature range, K
+	Pressure         [2]float64 // pressure range, Pa
+	EquivalenceRatio [2]float64 // equivalence-ratio range
+	Source           string     // where the statement comes from (publication, section)
 }
 
 // Species is a mechanism species: thermodynamics plus optional transport data.
@@ -116,6 +131,11 @@ type Reaction struct {
 	// not listed keep their stoichiometric coefficient as order.
 	Orders        map[int]float64
 	ReverseOrders map[int]float64
+
+	// UncertaintyFactor f says the rate constant lies within k/f ... k*f at
+	// two standard deviations (ln k has standard deviation ln(f)/2); 0 when
+	// the mechanism does not state one.
+	UncertaintyFactor float64
 
 	Origin Position
 }
