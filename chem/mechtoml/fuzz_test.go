@@ -18,7 +18,7 @@ func FuzzRead(f *testing.F) {
 	f.Add(hand.String())
 	f.Add(tinyHeader + tinyReactions)
 	f.Add(locateSample)
-	f.Add(tinyHeader + "\n[[reaction]]\nequation = \"H + O2 <=> O + OH\"\npressure_table = [{P = \"1 bar\", A = 2, b = 0, E = 0}]\n")
+	f.Add(tinyHeader + "\n[[reaction]]\nequation = \"H + O2 <=> O + OH\"\npressure_table = [{pressure = \"1 bar\", pre_exponential = 2, temperature_exponent = 0, activation_energy = 0}]\n")
 	f.Add(tinyHeader + "\n[[reaction]]\nequation = \"H + O2 <=> O + OH\"\n[reaction.chebyshev]\nT_range = [300, 2000]\nP_range = [\"0.1 atm\", \"10 atm\"]\ncoefficients = [[1, 2], [3, 4]]\nk_units = \"cm^3/molecule/s\"\n")
 	f.Add("format = 1\nelements = [\"H\"]\n[[species]]\nname = \"H\"\natoms = {H = 1}\nnasa7 = {T_range = [300, 1000, 3000], low = [2.5, 0, 0, 0, 0, 0, 0], high = [2.5, 0, 0, 0, 0, 0, 0]}\n")
 	f.Add("")

@@ -181,8 +181,20 @@ func handBuilt() *chem.Mechanism {
 			Products: []chem.Participant{p(4, "CO"), p(4, "H2")},
 			Form:     chem.Elementary, Rate: arr(3.1e12, 2, 0, -1.5e3)},
 	}
+	// Uncertainty factors as review articles state them (values typical of
+	// such reviews, not taken from one): exact numbers and a non-round one.
+	rs[0].UncertaintyFactor = 1.5
+	rs[5].UncertaintyFactor = 3.16
+	rs[10].UncertaintyFactor = 1
 	return &chem.Mechanism{
 		Name: "hand-built test set",
+		Validity: &chem.Validity{
+			Fuels:            []string{"CH4", "H2"},
+			Temperature:      [2]float64{300, 700},
+			Pressure:         [2]float64{0.1 * atm, 12345.678}, // the second has no exact atm form
+			EquivalenceRatio: [2]float64{0.5, 0},               // upper bound not stated
+			Source:           "invented for this test; \"quotes\" kept",
+		},
 		Description: "Test mechanism for flame1d's TOML format.\n" +
 			"Rates: typical published magnitudes, not a validated model.\n" +
 			"Quotes ' \" and a backslash \\ and tabs\tkept.\n",

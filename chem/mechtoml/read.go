@@ -57,13 +57,22 @@ func Read(r io.Reader, file string) (*chem.Mechanism, []chem.Problem, error) {
 	return m, problems, nil
 }
 
+// Keys used by both the reader and the writer.
+const (
+	efficienciesKey       = "collision_efficiencies"
+	unlistedEfficiencyKey = "unlisted_collision_efficiency"
+)
+
+// arrheniusKeys are the keys of k = A T^b exp(-E/(R T)): A, b, E.
+var arrheniusKeys = [3]string{"pre_exponential", "temperature_exponent", "activation_energy"}
+
 // reader holds the state of one Read.
 type reader struct {
 	file     string
 	problems []chem.Problem
 	paths    [][]string // key path of each problem, for its line
 	units    units
-	declared struct{ energy, pressure, length, quantity bool }
+	declared struct{ energy, pressure, concentration bool }
 	mech     *chem.Mechanism
 	species  map[string]int // species name -> index
 }
@@ -171,11 +180,11 @@ func (rd *reader) read(text string) *chem.Mechanism {
 // its index in the file.
 func (rd *reader) walk(doc map[string]any) []int {
 	m := rd.mech
-	rd.checkKeys(doc, nil, "", "format", "name", "description", "elements", "units", "species", "reaction")
+	rd.checkKeys(doc, nil, "", "format_version", "name", "description", "elements", "default_units", "validity", "species", "reaction")
 
-	if v, ok := doc["format"]; ok {
+	if v, ok := doc["format_version"]; ok {
 		if n, ok := v.(int64); !ok || n != FormatVersion {
-			rd.errorf([]string{"format"}, "", "format = %s is not supported; this flame1d reads format = %d", tomlText(v), FormatVersion)
+			rd.errorf([]string{"format_version"}, "", "format_version = %s is not supported; this flame1d reads format_version = %d", tomlText(v), FormatVersion)
 		}
 	}
 	if v, ok := doc["name"]; ok {
@@ -198,6 +207,9 @@ func (rd *reader) walk(doc map[string]any) []int {
 	m.Species = make([]chem.Species, len(species))
 	for i, t := range species {
 		rd.readSpecies(i, t)
+	}
+	if v, ok := doc["validity"]; ok {
+		m.Validity = rd.readValidity(v)
 	}
 	reactions := rd.tables(doc["reaction"], []string{"reaction"}, "reaction")
 	if len(reactions) > 0 {
@@ -351,14 +363,11 @@ type kind int
 const (
 	dimensionless  kind = iota
 	temperature         // K
-	energy              // activation energy, [units] energy
-	pressure            // [units] pressure
-	diameter            // Å unless written with a unit
-	dipole              // debye unless written with a unit
-	polarizability      // Å^3 unless written with a unit
+	energy              // activation energy, [default_units] activation_energy
+	pressure            // [default_units] pressure
 )
 
-var kindNames = [...]string{"a plain number", "a temperature", "an energy", "a pressure", "a length", "a dipole moment", "a polarizability volume"}
+var kindNames = [...]string{"a plain number", "a temperature", "an energy", "a pressure"}
 
 // number reads a number of the given kind and returns it in SI units. A
 // TOML integer or float is in the file's unit for that kind; a string
@@ -402,42 +411,20 @@ func (rd *reader) number(v any, path []string, label string, k kind) (float64, b
 			bad("temperatures are in K, not %q", unit)
 		}
 	case energy, pressure:
-		// A unit with the value, else the [units] table's.
-		name, allowed, f, known := "energy", energyUnits, rd.units.energyJ, rd.declared.energy
+		// A unit with the value, else the [default_units] table's.
+		name, key, allowed, f, known := "energy", "activation_energy", energyUnits, rd.units.energyJ, rd.declared.energy
 		if k == pressure {
-			name, allowed, f, known = "pressure", pressureUnits, rd.units.pressPa, rd.declared.pressure
+			name, key, allowed, f, known = "pressure", "pressure", pressureUnits, rd.units.pressPa, rd.declared.pressure
 		}
 		if hasUnit {
 			if f, known = allowed[unit]; !known {
 				bad("unknown %s unit %q (use %s)", name, unit, unitList(allowed))
 			}
 		} else if !known {
-			bad("no %s unit: declare %s in [units] or write the unit with the value, e.g. \"%s %s\"",
-				name, name, formatFloat(q), map[kind]string{energy: "cal/mol", pressure: "atm"}[k])
+			bad("no %s unit: declare %s in [default_units] or write the unit with the value, e.g. \"%s %s\"",
+				name, key, formatFloat(q), map[kind]string{energy: "cal/mol", pressure: "atm"}[k])
 		}
 		si = scaleBy(q, f)
-	case diameter, dipole, polarizability:
-		table, def := lengthUnits, diameterUnit
-		switch k {
-		case dipole:
-			table, def = dipoleUnits, dipoleUnit
-		case polarizability:
-			table, def = volumeUnits, polarizabilityUnit
-		}
-		if !hasUnit {
-			unit = def
-		}
-		conv, known := table[unit]
-		if !known {
-			names := make([]string, 0, len(table))
-			for n := range table {
-				names = append(names, n)
-			}
-			sort.Strings(names)
-			bad("unknown unit %q for %s (use %s)", unit, kindNames[k], strings.Join(names, ", "))
-		} else {
-			si = conv(q)
-		}
 	}
 	if ok && (math.IsInf(si, 0) || math.IsNaN(si)) {
 		bad("%g is out of range after conversion to SI units", q)
@@ -465,37 +452,44 @@ func (rd *reader) numbers(v any, path []string, label string, n int, k kind) ([]
 }
 
 func (rd *reader) readUnits(doc map[string]any) {
-	v, ok := doc["units"]
+	v, ok := doc["default_units"]
 	if !ok {
 		return
 	}
-	path := []string{"units"}
-	t, ok := rd.table(v, path, "", "units")
+	path := []string{"default_units"}
+	t, ok := rd.table(v, path, "", "default_units")
 	if !ok {
 		return
 	}
-	rd.checkKeys(t, path, "", "energy", "quantity", "length", "pressure")
-	pick := func(key string, allowed map[string]float64, set func(string, float64)) bool {
+	rd.checkKeys(t, path, "", "activation_energy", "concentration", "pressure")
+	pick := func(key string, allowed []string) (string, bool) {
 		v, ok := t[key]
 		if !ok {
-			return false
+			return "", false
 		}
-		s, ok := rd.str(v, sub(path, key), "", "units."+key)
+		s, ok := rd.str(v, sub(path, key), "", "default_units."+key)
 		if !ok {
-			return false
+			return "", false
 		}
-		f, ok := allowed[s]
-		if !ok {
-			rd.errorf(sub(path, key), "", "units.%s = %q is not one of %s", key, s, unitList(allowed))
-			return false
+		for _, a := range allowed {
+			if s == a {
+				return s, true
+			}
 		}
-		set(s, f)
-		return true
+		rd.errorf(sub(path, key), "", "default_units.%s = %q is not one of %s", key, s, strings.Join(allowed, ", "))
+		return "", false
 	}
-	rd.declared.energy = pick("energy", energyUnits, func(s string, f float64) { rd.units.energy, rd.units.energyJ = s, f })
-	rd.declared.pressure = pick("pressure", pressureUnits, func(s string, f float64) { rd.units.pressure, rd.units.pressPa = s, f })
-	rd.declared.length = pick("length", map[string]float64{"cm": 1, "m": 1}, func(s string, _ float64) { rd.units.lengthCM = s == "cm" })
-	rd.declared.quantity = pick("quantity", map[string]float64{"mol": 1, "molecule": 1}, func(s string, _ float64) { rd.units.molecule = s == "molecule" })
+	if s, ok := pick("activation_energy", unitNames(energyUnits)); ok {
+		rd.units.energy, rd.units.energyJ, rd.declared.energy = s, energyUnits[s], true
+	}
+	if s, ok := pick("pressure", unitNames(pressureUnits)); ok {
+		rd.units.pressure, rd.units.pressPa, rd.declared.pressure = s, pressureUnits[s], true
+	}
+	if s, ok := pick("concentration", concentrationUnits[:]); ok {
+		rd.units.lengthCM = strings.HasSuffix(s, "cm^3")
+		rd.units.molecule = strings.HasPrefix(s, "molecule")
+		rd.declared.concentration = true
+	}
 }
 
 func (rd *reader) readElements(v any) {
@@ -536,7 +530,7 @@ func (rd *reader) readSpecies(i int, t map[string]any) {
 		}
 	}
 	label := speciesLabel(i, s.Name)
-	rd.checkKeys(t, path, label, "name", "atoms", "phase", "nasa7", "transport")
+	rd.checkKeys(t, path, label, "name", "atoms", "phase", "nasa7", "kinetic_theory")
 
 	if v, ok := t["atoms"]; !ok {
 		rd.errorf(path, label, "no atoms table (e.g. atoms = {C = 1, H = 4})")
@@ -560,12 +554,12 @@ func (rd *reader) readSpecies(i int, t map[string]any) {
 		}
 	}
 	if v, ok := t["nasa7"]; !ok {
-		rd.errorf(path, label, "no thermo data ([species.nasa7] table with T_range, low, high)")
+		rd.errorf(path, label, "no thermo data ([species.nasa7] table with T_range_K, low_T_coefficients, high_T_coefficients)")
 	} else {
 		rd.readNASA7(v, sub(path, "nasa7"), label, s)
 	}
-	if v, ok := t["transport"]; ok {
-		s.Transport = rd.readTransport(v, sub(path, "transport"), label)
+	if v, ok := t["kinetic_theory"]; ok {
+		s.Transport = rd.readTransport(v, sub(path, "kinetic_theory"), label)
 	}
 }
 
@@ -574,64 +568,78 @@ func (rd *reader) readNASA7(v any, path []string, label string, s *chem.Species)
 	if !ok {
 		return
 	}
-	rd.checkKeys(t, path, label, "T_range", "low", "high")
-	for _, k := range []string{"T_range", "low", "high"} {
+	rd.checkKeys(t, path, label, "T_range_K", "low_T_coefficients", "high_T_coefficients")
+	for _, k := range []string{"T_range_K", "low_T_coefficients", "high_T_coefficients"} {
 		if _, ok := t[k]; !ok {
 			rd.errorf(path, label, "nasa7 has no %s", k)
 			return
 		}
 	}
-	tr, ok1 := rd.numbers(t["T_range"], sub(path, "T_range"), label, 3, temperature)
-	lo, ok2 := rd.numbers(t["low"], sub(path, "low"), label, 7, dimensionless)
-	hi, ok3 := rd.numbers(t["high"], sub(path, "high"), label, 7, dimensionless)
+	tr, ok1 := rd.numbers(t["T_range_K"], sub(path, "T_range_K"), label, 3, temperature)
+	lo, ok2 := rd.numbers(t["low_T_coefficients"], sub(path, "low_T_coefficients"), label, 7, dimensionless)
+	hi, ok3 := rd.numbers(t["high_T_coefficients"], sub(path, "high_T_coefficients"), label, 7, dimensionless)
 	if !(ok1 && ok2 && ok3) {
 		return
 	}
 	if !(tr[0] > 0 && tr[0] < tr[1] && tr[1] < tr[2]) {
-		rd.errorf(sub(path, "T_range"), label, "T_range must rise: 0 < low < switch < high, not %v", tr)
+		rd.errorf(sub(path, "T_range_K"), label, "T_range_K must rise: 0 < low < switch < high, not %v", tr)
 	}
 	s.Thermo.TLow, s.Thermo.TMid, s.Thermo.THigh = tr[0], tr[1], tr[2]
 	copy(s.Thermo.Low[:], lo)
 	copy(s.Thermo.High[:], hi)
 }
 
-var shapes = map[string]chem.Geometry{"atom": chem.Atom, "linear": chem.Linear, "nonlinear": chem.Nonlinear}
+var structures = map[string]chem.Geometry{"monatomic": chem.Atom, "linear": chem.Linear, "nonlinear": chem.Nonlinear}
 
+// readTransport reads a species' kinetic_theory table. Each length-like
+// parameter has two keys, one in the unit of published transport tables
+// and one in SI; at most one of them may be given.
 func (rd *reader) readTransport(v any, path []string, label string) *chem.TransportParams {
-	t, ok := rd.table(v, path, label, "transport")
+	t, ok := rd.table(v, path, label, "kinetic_theory")
 	if !ok {
 		return nil
 	}
-	rd.checkKeys(t, path, label, "shape", "well_depth", "diameter", "dipole", "polarizability", "rotational_relaxation")
+	allowed := []string{"structure", "lj_well_depth_K", "rotational_collision_number_298K"}
+	for _, q := range transportQuantities {
+		allowed = append(allowed, q.tableKey, q.siKey)
+	}
+	rd.checkKeys(t, path, label, allowed...)
 	tp := &chem.TransportParams{}
-	for _, k := range []string{"shape", "well_depth", "diameter"} {
+	for _, k := range []string{"structure", "lj_well_depth_K"} {
 		if _, ok := t[k]; !ok {
-			rd.errorf(path, label, "transport has no %s", k)
+			rd.errorf(path, label, "kinetic_theory has no %s", k)
 		}
 	}
-	if v, ok := t["shape"]; ok {
-		if sh, ok := rd.str(v, sub(path, "shape"), label, "shape"); ok {
-			g, known := shapes[sh]
+	if v, ok := t["structure"]; ok {
+		if st, ok := rd.str(v, sub(path, "structure"), label, "structure"); ok {
+			g, known := structures[st]
 			if !known {
-				rd.errorf(sub(path, "shape"), label, "shape = %q is not \"atom\", \"linear\" or \"nonlinear\"", sh)
+				rd.errorf(sub(path, "structure"), label, "structure = %q is not \"monatomic\", \"linear\" or \"nonlinear\"", st)
 			}
 			tp.Geometry = g
 		}
 	}
-	fields := []struct {
-		key string
-		k   kind
-		dst *float64
-	}{
-		{"well_depth", temperature, &tp.WellDepth},
-		{"diameter", diameter, &tp.Diameter},
-		{"dipole", dipole, &tp.Dipole},
-		{"polarizability", polarizability, &tp.Polarizability},
-		{"rotational_relaxation", dimensionless, &tp.RotRelaxation},
+	if v, ok := t["lj_well_depth_K"]; ok {
+		tp.WellDepth, _ = rd.number(v, sub(path, "lj_well_depth_K"), label, dimensionless)
 	}
-	for _, f := range fields {
-		if v, ok := t[f.key]; ok {
-			*f.dst, _ = rd.number(v, sub(path, f.key), label, f.k)
+	if v, ok := t["rotational_collision_number_298K"]; ok {
+		tp.RotRelaxation, _ = rd.number(v, sub(path, "rotational_collision_number_298K"), label, dimensionless)
+	}
+	dst := [...]*float64{&tp.Diameter, &tp.Dipole, &tp.Polarizability}
+	for i, q := range transportQuantities {
+		vt, inTable := t[q.tableKey]
+		vs, inSI := t[q.siKey]
+		switch {
+		case inTable && inSI:
+			rd.errorf(sub(path, q.siKey), label, "give %s or %s, not both", q.tableKey, q.siKey)
+		case inTable:
+			if x, ok := rd.number(vt, sub(path, q.tableKey), label, dimensionless); ok {
+				*dst[i] = q.toSI(x)
+			}
+		case inSI:
+			*dst[i], _ = rd.number(vs, sub(path, q.siKey), label, dimensionless)
+		case q.required:
+			rd.errorf(path, label, "kinetic_theory has no %s (or %s)", q.tableKey, q.siKey)
 		}
 	}
 	return tp
@@ -651,7 +659,7 @@ var rateTables = []struct {
 	key  string
 	form chem.RateForm
 }{
-	{"rate", chem.Elementary},
+	{"arrhenius", chem.Elementary},
 	{"falloff", chem.Falloff},
 	{"chemically_activated", chem.ChemicallyActivated},
 	{"pressure_table", chem.PressureTable},
@@ -669,9 +677,10 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 		text, _ = rd.str(v, sub(path, "equation"), reactionLabel(i, ""), "equation")
 	}
 	label := reactionLabel(i, text)
-	rd.checkKeys(t, path, label, "equation", "written_as", "duplicate",
-		"rate", "falloff", "chemically_activated", "pressure_table", "chebyshev",
-		"efficiencies", "default_efficiency", "reverse_rate", "orders", "reverse_orders")
+	rd.checkKeys(t, path, label, "equation", "written_as", "duplicate", "rate_uncertainty_factor",
+		"arrhenius", "falloff", "chemically_activated", "pressure_table", "chebyshev",
+		"collision_efficiencies", "unlisted_collision_efficiency", "reverse_arrhenius",
+		"concentration_exponents", "reverse_concentration_exponents")
 	if text == "" {
 		return r, false
 	}
@@ -692,11 +701,20 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 		}
 		r.Duplicate = b
 	}
-	if v, ok := t["orders"]; ok {
-		r.Orders = rd.orders(v, sub(path, "orders"), label)
+	if v, ok := t["concentration_exponents"]; ok {
+		r.Orders = rd.orders(v, sub(path, "concentration_exponents"), label)
 	}
-	if v, ok := t["reverse_orders"]; ok {
-		r.ReverseOrders = rd.orders(v, sub(path, "reverse_orders"), label)
+	if v, ok := t["reverse_concentration_exponents"]; ok {
+		r.ReverseOrders = rd.orders(v, sub(path, "reverse_concentration_exponents"), label)
+	}
+	if v, ok := t["rate_uncertainty_factor"]; ok {
+		p := sub(path, "rate_uncertainty_factor")
+		if f, ok := rd.number(v, p, label, dimensionless); ok {
+			if !(f >= 1) {
+				rd.errorf(p, label, "rate_uncertainty_factor = %s must be at least 1 (k lies within k/f ... k*f)", formatFloat(f))
+			}
+			r.UncertaintyFactor = f
+		}
 	}
 
 	var present []string
@@ -708,7 +726,7 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 	}
 	switch len(present) {
 	case 0:
-		rd.errorf(path, label, "no rate: give one of rate, falloff, chemically_activated, pressure_table, chebyshev")
+		rd.errorf(path, label, "no rate: give one of arrhenius, falloff, chemically_activated, pressure_table, chebyshev")
 		return r, false
 	case 1:
 	default:
@@ -746,18 +764,18 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 		}
 	}
 	rd.readThirdBody(t, path, label, &r, &eq)
-	if v, ok := t["reverse_rate"]; ok {
+	if v, ok := t["reverse_arrhenius"]; ok {
 		if !r.Reversible {
-			rd.errorf(sub(path, "reverse_rate"), label, "reverse_rate given for an irreversible step (=>)")
+			rd.errorf(sub(path, "reverse_arrhenius"), label, "reverse_arrhenius given for an irreversible step (=>)")
 		}
 		nr := reverseOrder(&r)
-		rev, ok := rd.arrhenius(v, sub(path, "reverse_rate"), label, nr)
+		rev, ok := rd.arrhenius(v, sub(path, "reverse_arrhenius"), label, nr)
 		if ok {
 			r.ReverseRate = &rev
 		}
 	}
 	if len(r.ReverseOrders) > 0 && !r.Reversible {
-		rd.errorf(sub(path, "reverse_orders"), label, "reverse_orders given for an irreversible step (=>)")
+		rd.errorf(sub(path, "reverse_concentration_exponents"), label, "reverse_concentration_exponents given for an irreversible step (=>)")
 	}
 	return r, len(rd.problems) == before
 }
@@ -771,20 +789,20 @@ func (rd *reader) speciesIndex(name string) int {
 
 // readThirdBody sets the collision efficiencies of a step with a third body.
 func (rd *reader) readThirdBody(t map[string]any, path []string, label string, r *chem.Reaction, eq *equation) {
-	_, hasEff := t["efficiencies"]
-	_, hasDef := t["default_efficiency"]
+	_, hasEff := t[efficienciesKey]
+	_, hasDef := t[unlistedEfficiencyKey]
 	switch eq.collider {
 	case noCollider:
-		for _, k := range []string{"efficiencies", "default_efficiency"} {
+		for _, k := range []string{efficienciesKey, unlistedEfficiencyKey} {
 			if _, ok := t[k]; ok {
 				rd.errorf(sub(path, k), label, "%s given, but the equation has no third body M", k)
 			}
 		}
 		return
 	case falloffSpecific:
-		for _, k := range []string{"efficiencies", "default_efficiency"} {
+		for _, k := range []string{efficienciesKey, unlistedEfficiencyKey} {
 			if _, ok := t[k]; ok {
-				rd.errorf(sub(path, k), label, "%s given, but the equation names one collider (+%s); write (+M) to use efficiencies",
+				rd.errorf(sub(path, k), label, "%s given, but the equation names one collider (+%s); write (+M) to use collision efficiencies",
 					k, rd.mech.Species[eq.specific].Name)
 			}
 		}
@@ -793,16 +811,16 @@ func (rd *reader) readThirdBody(t map[string]any, path []string, label string, r
 	}
 	tb := &chem.ThirdBody{Default: 1}
 	if hasDef {
-		tb.Default, _ = rd.number(t["default_efficiency"], sub(path, "default_efficiency"), label, dimensionless)
+		tb.Default, _ = rd.number(t[unlistedEfficiencyKey], sub(path, unlistedEfficiencyKey), label, dimensionless)
 	}
 	if hasEff {
-		p := sub(path, "efficiencies")
-		if et, ok := rd.table(t["efficiencies"], p, label, "efficiencies"); ok && len(et) > 0 {
+		p := sub(path, efficienciesKey)
+		if et, ok := rd.table(t[efficienciesKey], p, label, efficienciesKey); ok && len(et) > 0 {
 			tb.Efficiencies = make(map[int]float64, len(et))
 			for name, v := range et {
 				k := rd.speciesIndex(name)
 				if k < 0 {
-					rd.errorf(sub(p, name), label, "efficiency for unknown species %q", name)
+					rd.errorf(sub(p, name), label, "collision efficiency for unknown species %q", name)
 					continue
 				}
 				tb.Efficiencies[k], _ = rd.number(v, sub(p, name), label, dimensionless)
@@ -861,24 +879,26 @@ func reverseOrder(r *chem.Reaction) float64 {
 	return n
 }
 
-// arrhenius reads {A, b, E} for a rate constant of overall order n.
+// arrhenius reads {pre_exponential, temperature_exponent,
+// activation_energy} for a rate constant of overall order n.
 func (rd *reader) arrhenius(v any, path []string, label string, n float64) (chem.Arrhenius, bool) {
 	var a chem.Arrhenius
 	t, ok := rd.table(v, path, label, keyName(path))
 	if !ok {
 		return a, false
 	}
-	rd.checkKeys(t, path, label, "A", "b", "E")
+	rd.checkKeys(t, path, label, arrheniusKeys[:]...)
 	return rd.arrheniusFields(t, path, label, n)
 }
 
-// arrheniusFields reads A, b and E from t (which may hold other keys).
+// arrheniusFields reads the three Arrhenius parameters from t (which may
+// hold other keys).
 func (rd *reader) arrheniusFields(t map[string]any, path []string, label string, n float64) (chem.Arrhenius, bool) {
 	var a chem.Arrhenius
 	ok := true
-	for _, k := range []string{"A", "b", "E"} {
+	for _, k := range arrheniusKeys {
 		if _, has := t[k]; !has {
-			rd.errorf(path, label, "%s has no %s (give A, b and E)", keyName(path), k)
+			rd.errorf(path, label, "%s has no %s (give %s)", keyName(path), k, strings.Join(arrheniusKeys[:], ", "))
 			ok = false
 		}
 	}
@@ -886,9 +906,9 @@ func (rd *reader) arrheniusFields(t map[string]any, path []string, label string,
 		return a, false
 	}
 	var okA, okB, okE bool
-	a.A, okA = rd.preExponential(t["A"], sub(path, "A"), label, n)
-	a.B, okB = rd.number(t["b"], sub(path, "b"), label, dimensionless)
-	a.E, okE = rd.number(t["E"], sub(path, "E"), label, energy)
+	a.A, okA = rd.preExponential(t[arrheniusKeys[0]], sub(path, arrheniusKeys[0]), label, n)
+	a.B, okB = rd.number(t[arrheniusKeys[1]], sub(path, arrheniusKeys[1]), label, dimensionless)
+	a.E, okE = rd.number(t[arrheniusKeys[2]], sub(path, arrheniusKeys[2]), label, energy)
 	return a, okA && okB && okE
 }
 
@@ -899,8 +919,8 @@ func (rd *reader) preExponential(v any, path []string, label string, n float64) 
 	var u rateUnit
 	switch x := v.(type) {
 	case int64, float64:
-		if !rd.declared.length || !rd.declared.quantity {
-			rd.errorf(path, label, "A: no rate units: declare length and quantity in [units] or write the unit with the value, e.g. \"%s %s\"",
+		if !rd.declared.concentration {
+			rd.errorf(path, label, "pre_exponential: no concentration unit: declare concentration in [default_units] or write the unit with the value, e.g. \"%s %s\"",
 				tomlText(v), tableRateUnit(writeUnits, n))
 			return 0, false
 		}
@@ -910,7 +930,7 @@ func (rd *reader) preExponential(v any, path []string, label string, n float64) 
 			q = float64(x.(int64))
 		}
 		if math.IsNaN(q) || math.IsInf(q, 0) {
-			rd.errorf(path, label, "A must be finite, not %v", q)
+			rd.errorf(path, label, "pre_exponential must be finite, not %v", q)
 			return 0, false
 		}
 		u = tableRateUnit(rd.units, n)
@@ -923,21 +943,21 @@ func (rd *reader) preExponential(v any, path []string, label string, n float64) 
 			wu, err = parseRateUnit(unit)
 		}
 		if err != nil {
-			rd.errorf(path, label, "A: %v", err)
+			rd.errorf(path, label, "pre_exponential: %v", err)
 			return 0, false
 		}
 		var fits bool
 		if u, fits = wu.forOrder(n); !fits {
-			rd.errorf(path, label, "A: unit %q does not fit a rate constant of overall order %s (expected %s)", unit, formatFloat(n), u)
+			rd.errorf(path, label, "pre_exponential: unit %q does not fit a rate constant of overall order %s (expected %s)", unit, formatFloat(n), u)
 			return 0, false
 		}
 	default:
-		rd.errorf(path, label, "A must be a number, not %s", typeName(v))
+		rd.errorf(path, label, "pre_exponential must be a number, not %s", typeName(v))
 		return 0, false
 	}
 	si := u.toSI(q)
 	if math.IsNaN(si) || math.IsInf(si, 0) {
-		rd.errorf(path, label, "A = %v is not a finite number in SI units", q)
+		rd.errorf(path, label, "pre_exponential = %v is not a finite number in SI units", q)
 		return 0, false
 	}
 	return si, true
@@ -962,30 +982,30 @@ func (rd *reader) falloff(v any, path []string, label string, n float64) *chem.F
 	if !ok {
 		return nil
 	}
-	rd.checkKeys(t, path, label, "low", "high", "troe", "sri")
+	rd.checkKeys(t, path, label, "low_pressure_limit", "high_pressure_limit", "troe_broadening", "sri_broadening")
 	f := &chem.FalloffRate{}
-	for _, k := range []string{"low", "high"} {
+	for _, k := range []string{"low_pressure_limit", "high_pressure_limit"} {
 		if _, ok := t[k]; !ok {
-			rd.errorf(path, label, "%s has no %s-pressure limit (%s = {A, b, E})", path[len(path)-1], k, k)
+			rd.errorf(path, label, "%s has no %s (%s = {%s})", path[len(path)-1], k, k, strings.Join(arrheniusKeys[:], ", "))
 		}
 	}
-	if v, ok := t["low"]; ok {
-		f.Low, _ = rd.arrhenius(v, sub(path, "low"), label, n+1)
+	if v, ok := t["low_pressure_limit"]; ok {
+		f.Low, _ = rd.arrhenius(v, sub(path, "low_pressure_limit"), label, n+1)
 	}
-	if v, ok := t["high"]; ok {
-		f.High, _ = rd.arrhenius(v, sub(path, "high"), label, n)
+	if v, ok := t["high_pressure_limit"]; ok {
+		f.High, _ = rd.arrhenius(v, sub(path, "high_pressure_limit"), label, n)
 	}
-	_, troe := t["troe"]
-	_, sri := t["sri"]
+	_, troe := t["troe_broadening"]
+	_, sri := t["sri_broadening"]
 	if troe && sri {
-		rd.errorf(path, label, "give troe or sri, not both")
+		rd.errorf(path, label, "give troe_broadening or sri_broadening, not both")
 		return f
 	}
 	if troe {
-		f.Troe = rd.troe(t["troe"], sub(path, "troe"), label)
+		f.Troe = rd.troe(t["troe_broadening"], sub(path, "troe_broadening"), label)
 	}
 	if sri {
-		f.SRI = rd.sri(t["sri"], sub(path, "sri"), label)
+		f.SRI = rd.sri(t["sri_broadening"], sub(path, "sri_broadening"), label)
 	}
 	return f
 }
@@ -1005,33 +1025,34 @@ func (rd *reader) fields(t map[string]any, path []string, label string, required
 }
 
 func (rd *reader) troe(v any, path []string, label string) *chem.Troe {
-	t, ok := rd.table(v, path, label, "troe")
+	t, ok := rd.table(v, path, label, "troe_broadening")
 	if !ok {
 		return nil
 	}
-	rd.checkKeys(t, path, label, "a", "T3", "T1", "T2")
+	rd.checkKeys(t, path, label, "alpha", "T_triple_star_K", "T_single_star_K", "T_double_star_K")
 	tr := &chem.Troe{}
-	_, tr.HasT2 = t["T2"]
-	rd.fields(t, path, label, []string{"a", "T3", "T1"}, []string{"T2"},
-		map[string]kind{"a": dimensionless, "T3": temperature, "T1": temperature, "T2": temperature},
-		map[string]*float64{"a": &tr.A, "T3": &tr.T3, "T1": &tr.T1, "T2": &tr.T2})
+	_, tr.HasT2 = t["T_double_star_K"]
+	rd.fields(t, path, label, []string{"alpha", "T_triple_star_K", "T_single_star_K"}, []string{"T_double_star_K"},
+		map[string]kind{"alpha": dimensionless, "T_triple_star_K": temperature, "T_single_star_K": temperature, "T_double_star_K": temperature},
+		map[string]*float64{"alpha": &tr.A, "T_triple_star_K": &tr.T3, "T_single_star_K": &tr.T1, "T_double_star_K": &tr.T2})
 	return tr
 }
 
 func (rd *reader) sri(v any, path []string, label string) *chem.SRI {
-	t, ok := rd.table(v, path, label, "sri")
+	t, ok := rd.table(v, path, label, "sri_broadening")
 	if !ok {
 		return nil
 	}
-	rd.checkKeys(t, path, label, "a", "b", "c", "d", "e")
+	rd.checkKeys(t, path, label, "a", "b_K", "c_K", "d", "e")
 	s := &chem.SRI{D: 1}
-	rd.fields(t, path, label, []string{"a", "b", "c"}, []string{"d", "e"},
-		map[string]kind{"a": dimensionless, "b": temperature, "c": temperature, "d": dimensionless, "e": dimensionless},
-		map[string]*float64{"a": &s.A, "b": &s.B, "c": &s.C, "d": &s.D, "e": &s.E})
+	rd.fields(t, path, label, []string{"a", "b_K", "c_K"}, []string{"d", "e"},
+		map[string]kind{"a": dimensionless, "b_K": temperature, "c_K": temperature, "d": dimensionless, "e": dimensionless},
+		map[string]*float64{"a": &s.A, "b_K": &s.B, "c_K": &s.C, "d": &s.D, "e": &s.E})
 	return s
 }
 
-// pressureTable reads [{P, A, b, E}, ...], which must be sorted by P.
+// pressureTable reads [{pressure, pre_exponential, temperature_exponent,
+// activation_energy}, ...], which must be sorted by pressure.
 func (rd *reader) pressureTable(v any, path []string, label string, n float64) []chem.PressureRate {
 	rows := rd.tables(v, path, "pressure_table")
 	if len(rows) == 0 {
@@ -1041,44 +1062,45 @@ func (rd *reader) pressureTable(v any, path []string, label string, n float64) [
 	out := make([]chem.PressureRate, 0, len(rows))
 	for i, row := range rows {
 		p := sub(path, strconv.Itoa(i))
-		rd.checkKeys(row, p, label, "P", "A", "b", "E")
+		rd.checkKeys(row, p, label, append([]string{"pressure"}, arrheniusKeys[:]...)...)
 		var pr chem.PressureRate
 		ok := true
-		if v, has := row["P"]; has {
-			pr.P, ok = rd.number(v, sub(p, "P"), label, pressure)
+		if v, has := row["pressure"]; has {
+			pr.P, ok = rd.number(v, sub(p, "pressure"), label, pressure)
 			if ok && !(pr.P > 0) {
-				rd.errorf(sub(p, "P"), label, "pressure %g Pa must be positive", pr.P)
+				rd.errorf(sub(p, "pressure"), label, "pressure %g Pa must be positive", pr.P)
 			}
 		} else {
-			rd.errorf(p, label, "pressure_table row %d has no P", i+1)
+			rd.errorf(p, label, "pressure_table row %d has no pressure", i+1)
 		}
 		pr.Rate, _ = rd.arrheniusFields(row, p, label, n)
 		if ok && len(out) > 0 && pr.P < out[len(out)-1].P {
-			rd.errorf(sub(p, "P"), label, "pressure_table rows must be in order of rising pressure")
+			rd.errorf(sub(p, "pressure"), label, "pressure_table rows must be in order of rising pressure")
 		}
 		out = append(out, pr)
 	}
 	return out
 }
 
-// chebyshev reads the Chebyshev table: T_range, P_range, coefficients
-// (rows: temperature terms, columns: pressure terms) of log10 k in the
-// file's units (or k_units) for a step of overall order n.
+// chebyshev reads the Chebyshev table: T_range_K, pressure_range,
+// coefficients (rows: temperature terms, columns: pressure terms) of
+// log10 k in the file's units (or rate_constant_unit) for a step of
+// overall order n.
 func (rd *reader) chebyshev(v any, path []string, label string, n float64) *chem.ChebyshevRate {
 	t, ok := rd.table(v, path, label, "chebyshev")
 	if !ok {
 		return nil
 	}
-	rd.checkKeys(t, path, label, "T_range", "P_range", "coefficients", "k_units")
-	for _, k := range []string{"T_range", "P_range", "coefficients"} {
+	rd.checkKeys(t, path, label, "T_range_K", "pressure_range", "coefficients", "rate_constant_unit")
+	for _, k := range []string{"T_range_K", "pressure_range", "coefficients"} {
 		if _, ok := t[k]; !ok {
 			rd.errorf(path, label, "chebyshev has no %s", k)
 			return nil
 		}
 	}
 	c := &chem.ChebyshevRate{}
-	tr, ok1 := rd.numbers(t["T_range"], sub(path, "T_range"), label, 2, temperature)
-	pr, ok2 := rd.numbers(t["P_range"], sub(path, "P_range"), label, 2, pressure)
+	tr, ok1 := rd.numbers(t["T_range_K"], sub(path, "T_range_K"), label, 2, temperature)
+	pr, ok2 := rd.numbers(t["pressure_range"], sub(path, "pressure_range"), label, 2, pressure)
 	if ok1 {
 		c.TMin, c.TMax = tr[0], tr[1]
 	}
@@ -1086,24 +1108,24 @@ func (rd *reader) chebyshev(v any, path []string, label string, n float64) *chem
 		c.PMin, c.PMax = pr[0], pr[1]
 	}
 	var u rateUnit
-	if v, ok := t["k_units"]; ok {
-		s, ok := rd.str(v, sub(path, "k_units"), label, "k_units")
+	if v, ok := t["rate_constant_unit"]; ok {
+		s, ok := rd.str(v, sub(path, "rate_constant_unit"), label, "rate_constant_unit")
 		if !ok {
 			return nil
 		}
 		wu, err := parseRateUnit(s)
 		if err != nil {
-			rd.errorf(sub(path, "k_units"), label, "k_units: %v", err)
+			rd.errorf(sub(path, "rate_constant_unit"), label, "rate_constant_unit: %v", err)
 			return nil
 		}
 		var fits bool
 		if u, fits = wu.forOrder(n); !fits {
-			rd.errorf(sub(path, "k_units"), label, "k_units %q does not fit a rate constant of overall order %s (expected %s)",
+			rd.errorf(sub(path, "rate_constant_unit"), label, "rate_constant_unit %q does not fit a rate constant of overall order %s (expected %s)",
 				s, formatFloat(n), u)
 			return nil
 		}
-	} else if !rd.declared.length || !rd.declared.quantity {
-		rd.errorf(path, label, "chebyshev: no rate units: declare length and quantity in [units] or give k_units")
+	} else if !rd.declared.concentration {
+		rd.errorf(path, label, "chebyshev: no rate units: declare concentration in [default_units] or give rate_constant_unit")
 		return nil
 	} else {
 		u = tableRateUnit(rd.units, n)

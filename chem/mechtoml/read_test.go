@@ -14,88 +14,87 @@ import (
 // H2/O2/N2 species (polynomials from GRI-Mech 3.0, thermo30.dat, Smith et
 // al. 1999, for H, H2, O, O2, OH, H2O, HO2, N2, AR).
 const tinyHeader = `# A hand-written test mechanism.
-format = 1
+format_version = 1
 name = "tiny"
 elements = ["O", "H", "N", "AR"]
 
-[units]
-energy = "cal/mol"
-quantity = "mol"
-length = "cm"
+[default_units]
+activation_energy = "cal/mol"
+concentration = "mol/cm^3"
 pressure = "atm"
 
 [[species]]
 name = "H"
 atoms = {H = 1}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599, -0.446682853]
-high = [2.50000001, -2.30842973e-11, 1.61561948e-14, -4.73515235e-18, 4.98197357e-22, 25473.6599, -0.446682914]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599, -0.446682853]
+high_T_coefficients = [2.50000001, -2.30842973e-11, 1.61561948e-14, -4.73515235e-18, 4.98197357e-22, 25473.6599, -0.446682914]
 
 [[species]]
 name = "H2"
 atoms = {H = 2}
-transport = {shape = "linear", well_depth = 38, diameter = 2.92, polarizability = 0.79, rotational_relaxation = 280}
+kinetic_theory = {structure = "linear", lj_well_depth_K = 38, lj_diameter_angstrom = 2.92, polarizability_angstrom3 = 0.79, rotational_collision_number_298K = 280}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [2.34433112, 0.00798052075, -1.9478151e-05, 2.01572094e-08, -7.37611761e-12, -917.935173, 0.683010238]
-high = [3.3372792, -4.94024731e-05, 4.99456778e-07, -1.79566394e-10, 2.00255376e-14, -950.158922, -3.20502331]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [2.34433112, 0.00798052075, -1.9478151e-05, 2.01572094e-08, -7.37611761e-12, -917.935173, 0.683010238]
+high_T_coefficients = [3.3372792, -4.94024731e-05, 4.99456778e-07, -1.79566394e-10, 2.00255376e-14, -950.158922, -3.20502331]
 
 [[species]]
 name = "O"
 atoms = {O = 1}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [3.1682671, -0.00327931884, 6.64306396e-06, -6.12806624e-09, 2.11265971e-12, 29122.2592, 2.05193346]
-high = [2.56942078, -8.59741137e-05, 4.19484589e-08, -1.00177799e-11, 1.22833691e-15, 29217.5791, 4.78433864]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [3.1682671, -0.00327931884, 6.64306396e-06, -6.12806624e-09, 2.11265971e-12, 29122.2592, 2.05193346]
+high_T_coefficients = [2.56942078, -8.59741137e-05, 4.19484589e-08, -1.00177799e-11, 1.22833691e-15, 29217.5791, 4.78433864]
 
 [[species]]
 name = "O2"
 atoms = {O = 2}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [3.78245636, -0.00299673416, 9.84730201e-06, -9.68129509e-09, 3.24372837e-12, -1063.94356, 3.65767573]
-high = [3.28253784, 0.00148308754, -7.57966669e-07, 2.09470555e-10, -2.16717794e-14, -1088.45772, 5.45323129]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [3.78245636, -0.00299673416, 9.84730201e-06, -9.68129509e-09, 3.24372837e-12, -1063.94356, 3.65767573]
+high_T_coefficients = [3.28253784, 0.00148308754, -7.57966669e-07, 2.09470555e-10, -2.16717794e-14, -1088.45772, 5.45323129]
 
 [[species]]
 name = "OH"
 atoms = {O = 1, H = 1}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [3.99201543, -0.00240131752, 4.61793841e-06, -3.88113333e-09, 1.3641147e-12, 3615.08056, -0.103925458]
-high = [3.09288767, 0.000548429716, 1.26505228e-07, -8.79461556e-11, 1.17412376e-14, 3858.657, 4.4766961]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [3.99201543, -0.00240131752, 4.61793841e-06, -3.88113333e-09, 1.3641147e-12, 3615.08056, -0.103925458]
+high_T_coefficients = [3.09288767, 0.000548429716, 1.26505228e-07, -8.79461556e-11, 1.17412376e-14, 3858.657, 4.4766961]
 
 [[species]]
 name = "H2O"
 atoms = {H = 2, O = 1}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [4.19864056, -0.0020364341, 6.52040211e-06, -5.48797062e-09, 1.77197817e-12, -30293.7267, -0.849032208]
-high = [3.03399249, 0.00217691804, -1.64072518e-07, -9.7041987e-11, 1.68200992e-14, -30004.2971, 4.9667701]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [4.19864056, -0.0020364341, 6.52040211e-06, -5.48797062e-09, 1.77197817e-12, -30293.7267, -0.849032208]
+high_T_coefficients = [3.03399249, 0.00217691804, -1.64072518e-07, -9.7041987e-11, 1.68200992e-14, -30004.2971, 4.9667701]
 
 [[species]]
 name = "HO2"
 atoms = {H = 1, O = 2}
 [species.nasa7]
-T_range = [200, 1000, 3500]
-low = [4.30179801, -0.00474912051, 2.11582891e-05, -2.42763894e-08, 9.29225124e-12, 294.80804, 3.71666245]
-high = [4.0172109, 0.00223982013, -6.3365815e-07, 1.1424637e-10, -1.07908535e-14, 111.856713, 3.78510215]
+T_range_K = [200, 1000, 3500]
+low_T_coefficients = [4.30179801, -0.00474912051, 2.11582891e-05, -2.42763894e-08, 9.29225124e-12, 294.80804, 3.71666245]
+high_T_coefficients = [4.0172109, 0.00223982013, -6.3365815e-07, 1.1424637e-10, -1.07908535e-14, 111.856713, 3.78510215]
 
 [[species]]
 name = "N2"
 atoms = {N = 2}
 [species.nasa7]
-T_range = [300, 1000, 5000]
-low = [3.298677, 0.0014082404, -3.963222e-06, 5.641515e-09, -2.444854e-12, -1020.8999, 3.950372]
-high = [2.92664, 0.0014879768, -5.68476e-07, 1.0097038e-10, -6.753351e-15, -922.7977, 5.980528]
+T_range_K = [300, 1000, 5000]
+low_T_coefficients = [3.298677, 0.0014082404, -3.963222e-06, 5.641515e-09, -2.444854e-12, -1020.8999, 3.950372]
+high_T_coefficients = [2.92664, 0.0014879768, -5.68476e-07, 1.0097038e-10, -6.753351e-15, -922.7977, 5.980528]
 
 [[species]]
 name = "AR"
 atoms = {AR = 1}
 [species.nasa7]
-T_range = [300, 1000, 5000]
-low = [2.5, 0, 0, 0, 0, -745.375, 4.366]
-high = [2.5, 0, 0, 0, 0, -745.375, 4.366]
+T_range_K = [300, 1000, 5000]
+low_T_coefficients = [2.5, 0, 0, 0, 0, -745.375, 4.366]
+high_T_coefficients = [2.5, 0, 0, 0, 0, -745.375, 4.366]
 `
 
 // tinyReactions are three steps in the H2/O2 system, rates from GRI-Mech
@@ -103,20 +102,20 @@ high = [2.5, 0, 0, 0, 0, -745.375, 4.366]
 const tinyReactions = `
 [[reaction]]
 equation = "H + O2 <=> O + OH"
-rate = {A = 2.65e16, b = -0.6707, E = 17041}
+arrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}
 
 [[reaction]]
 equation = "H + O2 (+M) <=> HO2 (+M)"
-efficiencies = {O2 = 0, H2O = 11, N2 = 0, AR = 0}
+collision_efficiencies = {O2 = 0, H2O = 11, N2 = 0, AR = 0}
 [reaction.falloff]
-low = {A = 6.366e20, b = -1.72, E = 524.8}
-high = {A = 4.65084e12, b = 0.44, E = 0}
-troe = {a = 0.5, T3 = 1e-30, T1 = 1e30}
+low_pressure_limit = {pre_exponential = 6.366e20, temperature_exponent = -1.72, activation_energy = 524.8}
+high_pressure_limit = {pre_exponential = 4.65084e12, temperature_exponent = 0.44, activation_energy = 0}
+troe_broadening = {alpha = 0.5, T_triple_star_K = 1e-30, T_single_star_K = 1e30}
 
 [[reaction]]
 equation = "2O+M<=>O2+M"
-rate = {A = 1.2e17, b = -1, E = 0}
-efficiencies = {H2 = 2.4, H2O = 15.4, AR = 0.83}
+arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}
+collision_efficiencies = {H2 = 2.4, H2O = 15.4, AR = 0.83}
 `
 
 func readString(t *testing.T, text string) (*chem.Mechanism, []chem.Problem, error) {
@@ -191,15 +190,15 @@ func TestPerValueUnits(t *testing.T) {
 		pick  func(m *chem.Mechanism) float64
 		want  float64
 	}{
-		{"kcal/mol", `rate = {A = 1, b = 0, E = "35 kcal/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 35 * 4184},
-		{"kJ/mol", `rate = {A = 1, b = 0, E = "146.44 kJ/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 146440},
-		{"J/mol", `rate = {A = 1, b = 0, E = "146440 J/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 146440},
-		{"K", `rate = {A = 1, b = 0, E = "10000 K"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 10000 * R},
-		{"cm^3/mol/s", `rate = {A = "2.65e16 cm^3/mol/s", b = 0, E = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
-		{"m^3/mol/s", `rate = {A = "2.65e10 m^3/mol/s", b = 0, E = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
-		{"cm3/(mol s)", `rate = {A = "2.65e16 cm3/(mol s)", b = 0, E = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
+		{"kcal/mol", `arrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = "35 kcal/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 35 * 4184},
+		{"kJ/mol", `arrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = "146.44 kJ/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 146440},
+		{"J/mol", `arrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = "146440 J/mol"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 146440},
+		{"K", `arrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = "10000 K"}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.E }, 10000 * R},
+		{"cm^3/mol/s", `arrhenius = {pre_exponential = "2.65e16 cm^3/mol/s", temperature_exponent = 0, activation_energy = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
+		{"m^3/mol/s", `arrhenius = {pre_exponential = "2.65e10 m^3/mol/s", temperature_exponent = 0, activation_energy = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
+		{"cm3/(mol s)", `arrhenius = {pre_exponential = "2.65e16 cm3/(mol s)", temperature_exponent = 0, activation_energy = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 2.65e10},
 		// 1e-10 cm^3/molecule/s = 1e-16 m^3 * 6.02214076e23 /mol/s.
-		{"cm^3/molecule/s", `rate = {A = "1e-10 cm^3/molecule/s", b = 0, E = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 6.02214076e7},
+		{"cm^3/molecule/s", `arrhenius = {pre_exponential = "1e-10 cm^3/molecule/s", temperature_exponent = 0, activation_energy = 0}`, func(m *chem.Mechanism) float64 { return m.Reactions[0].Rate.A }, 6.02214076e7},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -213,16 +212,16 @@ func TestPerValueUnits(t *testing.T) {
 			}
 		})
 	}
-	// Transport and pressure values with their own units.
-	text := strings.Replace(tinyHeader, `transport = {shape = "linear", well_depth = 38, diameter = 2.92, polarizability = 0.79, rotational_relaxation = 280}`,
-		`transport = {shape = "linear", well_depth = "38 K", diameter = "0.292 nm", dipole = "1 D", polarizability = "0.79e-30 m^3"}`, 1) +
-		"\n[[reaction]]\nequation = \"H + O2 <=> O + OH\"\npressure_table = [{P = \"1 bar\", A = 2, b = 0, E = 0}, {P = \"760 Torr\", A = 1, b = 0, E = 0}, {P = \"0.2 MPa\", A = 3, b = 0, E = 0}]\n"
+	// Transport values under their SI keys, pressures with their own units.
+	text := strings.Replace(tinyHeader, `kinetic_theory = {structure = "linear", lj_well_depth_K = 38, lj_diameter_angstrom = 2.92, polarizability_angstrom3 = 0.79, rotational_collision_number_298K = 280}`,
+		`kinetic_theory = {structure = "linear", lj_well_depth_K = 38, lj_diameter_m = 2.92e-10, dipole_moment_C_m = 3.3356409519815204e-30, polarizability_m3 = 0.79e-30}`, 1) +
+		"\n[[reaction]]\nequation = \"H + O2 <=> O + OH\"\npressure_table = [{pressure = \"1 bar\", pre_exponential = 2, temperature_exponent = 0, activation_energy = 0}, {pressure = \"760 Torr\", pre_exponential = 1, temperature_exponent = 0, activation_energy = 0}, {pressure = \"0.2 MPa\", pre_exponential = 3, temperature_exponent = 0, activation_energy = 0}]\n"
 	m, _, err := readString(t, text)
 	if err != nil {
 		t.Fatal(err)
 	}
 	tp := m.Species[1].Transport
-	if !close(tp.Diameter, 2.92e-10, 1e-15) || !close(tp.Dipole, 3.3356409519815204e-30, 1e-15) || tp.Polarizability != 0.79e-30 || tp.WellDepth != 38 {
+	if tp.Diameter != 2.92e-10 || tp.Dipole != 3.3356409519815204e-30 || tp.Polarizability != 0.79e-30 || tp.WellDepth != 38 {
 		t.Errorf("transport with units read as %+v", tp)
 	}
 	pr := m.Reactions[0].PressureRates
@@ -247,39 +246,51 @@ func TestBrokenInput(t *testing.T) {
 		atLine string // the error is on the first line containing this, or, with a leading "^", on the line before it (a [[...]] header)
 	}{
 		{"unknown top-level key", replace(`name = "tiny"`, "name = \"tiny\"\nauthor = \"me\""), `unknown key "author"`, "author ="},
-		{"unknown key in falloff", replace(`troe = {a = 0.5`, `trow = {a = 0.5`), `unknown key "trow" in reaction[2].falloff`, "trow ="},
-		{"unknown key in inline table", replace(`rate = {A = 1.2e17, b = -1, E = 0}`, `rate = {A = 1.2e17, b = -1, Ea = 0}`), `unknown key "Ea"`, "Ea = 0"},
+		{"unknown key in falloff", replace(`troe_broadening = {alpha`, `troe = {alpha`), `unknown key "troe" in reaction[2].falloff`, "troe = {alpha"},
+		{"unknown key in inline table", replace("activation_energy = 0}\ncollision_efficiencies = {H2", "activation_energy = 0, Ea = 0}\ncollision_efficiencies = {H2"), `unknown key "Ea"`, "Ea = 0"},
+		{"old key name", replace(`arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}`, `rate = {A = 1.2e17, b = -1, E = 0}`), `unknown key "rate"`, "rate = {A"},
 		{"unknown species in equation", replace(`equation = "H + O2 <=> O + OH"`, `equation = "H + O3 <=> O + OH"`), `unknown species "O3"`, "O3"},
 		{"unbalanced reaction", replace(`equation = "H + O2 <=> O + OH"`, `equation = "H + O2 <=> O + H2O"`), "not element-balanced", "^O + H2O"},
 		{"missing thermo", replace("name = \"O\"\natoms = {O = 1}\n[species.nasa7]", "name = \"O\"\natoms = {O = 1}\n[species.stuff]"), "no thermo data", `^name = "O"`},
-		{"bad number", replace(`b = -0.6707`, `b = "-0.67o7"`), `"-0.67o7" is not a number followed by a unit`, "0.67o7"},
-		{"bad number with unit", replace(`E = 17041}`, `E = "17O41 cal/mol"}`), `"17O41" is not a number`, "17O41"},
-		{"wrong type", replace("T_range = [200, 1000, 3500]\nlow = [3.1682671", "T_range = \"200 1000 3500\"\nlow = [3.1682671"), "T_range must be an array, not a string", `T_range = "200`},
+		{"bad number", replace(`temperature_exponent = -0.6707`, `temperature_exponent = "-0.67o7"`), `"-0.67o7" is not a number followed by a unit`, "0.67o7"},
+		{"bad number with unit", replace(`activation_energy = 17041}`, `activation_energy = "17O41 cal/mol"}`), `"17O41" is not a number`, "17O41"},
+		{"wrong type", replace("T_range_K = [200, 1000, 3500]\nlow_T_coefficients = [3.1682671", "T_range_K = \"200 1000 3500\"\nlow_T_coefficients = [3.1682671"), "T_range_K must be an array, not a string", `T_range_K = "200`},
 		{"wrong type for name", replace(`name = "OH"`, `name = 7`), "name must be a string, not an integer", "name = 7"},
-		{"TOML syntax", replace(`rate = {A = 2.65e16`, `rate = {A = 2.65e16,,`), "not valid TOML", "2.65e16,,"},
-		{"not finite", replace(`A = 2.65e16`, `A = nan`), "must be finite", "A = nan"},
-		{"no units for A", strings.Replace(replace(`quantity = "mol"`, ``), `length = "cm"`, ``, 1), "no rate units", `A = 2.65e16`},
-		{"unit of wrong order", replace(`A = 1.2e17,`, `A = "1.2e17 cm^3/mol/s",`), "does not fit a rate constant of overall order 3 (expected cm^6/mol^2/s)", "1.2e17 cm^3"},
-		{"unknown energy unit", replace(`E = 17041}`, `E = "17041 kcal"}`), `unknown energy unit "kcal"`, "17041 kcal"},
-		{"troe and sri", replace(`troe = {a = 0.5, T3 = 1e-30, T1 = 1e30}`, "troe = {a = 0.5, T3 = 1e-30, T1 = 1e30}\nsri = {a = 1, b = 2, c = 3}"), "troe or sri, not both", "[reaction.falloff]"},
-		{"not marked duplicate", good + "\n[[reaction]]\nequation = \"O + OH <=> H + O2\"\nrate = {A = 1, b = 0, E = 0}\n", "not marked duplicate", `^equation = "O + OH <=> H + O2"`},
-		{"efficiencies without M", replace("rate = {A = 2.65e16, b = -0.6707, E = 17041}", "rate = {A = 2.65e16, b = -0.6707, E = 17041}\nefficiencies = {H2O = 2}"), "no third body M", "efficiencies = {H2O = 2}"},
+		{"TOML syntax", replace(`arrhenius = {pre_exponential = 2.65e16`, `arrhenius = {pre_exponential = 2.65e16,,`), "not valid TOML", "2.65e16,,"},
+		{"not finite", replace(`pre_exponential = 2.65e16`, `pre_exponential = nan`), "must be finite", "pre_exponential = nan"},
+		{"no concentration unit", replace(`concentration = "mol/cm^3"`, ``), "no concentration unit", `pre_exponential = 2.65e16`},
+		{"bad concentration unit", replace(`concentration = "mol/cm^3"`, `concentration = "mol/cm3"`), `default_units.concentration = "mol/cm3" is not one of`, `concentration = "mol/cm3"`},
+		{"unit of wrong order", replace(`pre_exponential = 1.2e17,`, `pre_exponential = "1.2e17 cm^3/mol/s",`), "does not fit a rate constant of overall order 3 (expected cm^6/mol^2/s)", "1.2e17 cm^3"},
+		{"unknown energy unit", replace(`activation_energy = 17041}`, `activation_energy = "17041 kcal"}`), `unknown energy unit "kcal"`, "17041 kcal"},
+		{"troe and sri", replace(`troe_broadening = {alpha = 0.5, T_triple_star_K = 1e-30, T_single_star_K = 1e30}`, "troe_broadening = {alpha = 0.5, T_triple_star_K = 1e-30, T_single_star_K = 1e30}\nsri_broadening = {a = 1, b_K = 2, c_K = 3}"), "troe_broadening or sri_broadening, not both", "[reaction.falloff]"},
+		{"not marked duplicate", good + "\n[[reaction]]\nequation = \"O + OH <=> H + O2\"\narrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = 0}\n", "not marked duplicate", `^equation = "O + OH <=> H + O2"`},
+		{"efficiencies without M", replace("arrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}", "arrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}\ncollision_efficiencies = {H2O = 2}"), "no third body M", "collision_efficiencies = {H2O = 2}"},
 		{"collider on one side", replace(`"H + O2 (+M) <=> HO2 (+M)"`, `"H + O2 (+M) <=> HO2"`), "on both sides", `"H + O2 (+M) <=> HO2"`},
 		{"no arrow", replace(`"H + O2 <=> O + OH"`, `"H + O2 -> O + OH"`), "no arrow", `-> O + OH`},
-		{"reverse rate on irreversible", replace("equation = \"H + O2 <=> O + OH\"\nrate = {A = 2.65e16, b = -0.6707, E = 17041}",
-			"equation = \"H + O2 => O + OH\"\nrate = {A = 2.65e16, b = -0.6707, E = 17041}\nreverse_rate = {A = 1, b = 0, E = 0}"), "irreversible", "reverse_rate ="},
-		{"pressure table unsorted", replace("rate = {A = 2.65e16, b = -0.6707, E = 17041}",
-			"pressure_table = [\n  {P = 10, A = 1, b = 0, E = 0},\n  {P = 1, A = 1, b = 0, E = 0},\n]"), "rising pressure", "{P = 1, A"},
-		{"format version", replace("format = 1", "format = 2"), "format = 2 is not supported", "format = 2"},
+		{"reverse rate on irreversible", replace("equation = \"H + O2 <=> O + OH\"\narrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}",
+			"equation = \"H + O2 => O + OH\"\narrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}\nreverse_arrhenius = {pre_exponential = 1, temperature_exponent = 0, activation_energy = 0}"), "irreversible", "reverse_arrhenius ="},
+		{"pressure table unsorted", replace("arrhenius = {pre_exponential = 2.65e16, temperature_exponent = -0.6707, activation_energy = 17041}",
+			"pressure_table = [\n  {pressure = 10, pre_exponential = 1, temperature_exponent = 0, activation_energy = 0},\n  {pressure = 1, pre_exponential = 1, temperature_exponent = 0, activation_energy = 0},\n]"), "rising pressure", "{pressure = 1, pre"},
+		{"format version", replace("format_version = 1", "format_version = 2"), "format_version = 2 is not supported", "format_version = 2"},
 		{"blank in species name", replace(`name = "HO2"`, `name = "HO 2"`), "without blanks", `name = "HO 2"`},
 		{"efficiency of unknown species", replace(`H2 = 2.4, H2O = 15.4`, `H2 = 2.4, CO2 = 3.8`), `unknown species "CO2"`, "CO2 = 3.8"},
-		{"two rates", replace("rate = {A = 1.2e17, b = -1, E = 0}", "rate = {A = 1.2e17, b = -1, E = 0}\nchebyshev = {}"), "more than one rate", `^equation = "2O+M`},
-		{"no rate", replace("rate = {A = 1.2e17, b = -1, E = 0}\n", ""), "no rate", `^equation = "2O+M`},
-		{"missing Arrhenius E", replace("rate = {A = 1.2e17, b = -1, E = 0}", "rate = {A = 1.2e17, b = -1}"), "rate has no E", "rate = {A = 1.2e17"},
-		{"bad shape", replace(`shape = "linear"`, `shape = "bent"`), `shape = "bent"`, `shape = "bent"`},
-		{"nasa7 wrong length", replace("low = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599, -0.446682853]",
-			"low = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599]"), "low must hold 7 numbers, not 6", "low = [2.5, 7.05332819e-13"},
-		{"T_range not rising", replace("T_range = [200, 1000, 3500]\nlow = [3.1682671", "T_range = [200, 3500, 1000]\nlow = [3.1682671"), "T_range must rise", "T_range = [200, 3500, 1000]"},
+		{"two rates", replace("arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}", "arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}\nchebyshev = {}"), "more than one rate", `^equation = "2O+M`},
+		{"no rate", replace("arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}\n", ""), "no rate", `^equation = "2O+M`},
+		{"missing activation energy", replace("arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}", "arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1}"), "arrhenius has no activation_energy", "arrhenius = {pre_exponential = 1.2e17"},
+		{"bad structure", replace(`structure = "linear"`, `structure = "bent"`), `structure = "bent"`, `structure = "bent"`},
+		{"diameter twice", replace(`lj_diameter_angstrom = 2.92`, `lj_diameter_angstrom = 2.92, lj_diameter_m = 2.92e-10`), "not both", "lj_diameter_m"},
+		{"no diameter", replace(`lj_diameter_angstrom = 2.92, `, ``), "no lj_diameter_angstrom (or lj_diameter_m)", "structure = \"linear\""},
+		{"uncertainty below 1", replace("activation_energy = 17041}", "activation_energy = 17041}\nrate_uncertainty_factor = 0.5"), "must be at least 1", "rate_uncertainty_factor = 0.5"},
+		{"uncertainty not a number", replace("activation_energy = 17041}", "activation_energy = 17041}\nrate_uncertainty_factor = \"x2\""), "rate_uncertainty_factor", "rate_uncertainty_factor = \"x2\""},
+		{"validity fuel unknown", replace("[[species]]\nname = \"H\"\n", "[validity]\nfuels = [\"H2\", \"CH4\"]\n\n[[species]]\nname = \"H\"\n"), `validity fuel "CH4" is not a species`, `fuels = ["H2", "CH4"]`},
+		{"validity fuel twice", replace("[[species]]\nname = \"H\"\n", "[validity]\nfuels = [\"H2\", \"H2\"]\n\n[[species]]\nname = \"H\"\n"), `listed twice`, `fuels = ["H2", "H2"]`},
+		{"validity range reversed", replace("[[species]]\nname = \"H\"\n", "[validity]\nunburned_temperature_range_K = [700, 300]\n\n[[species]]\nname = \"H\"\n"), "low first", "unburned_temperature_range_K = [700"},
+		{"validity pressure negative", replace("[[species]]\nname = \"H\"\n", "[validity]\npressure_range = [-1, 10]\n\n[[species]]\nname = \"H\"\n"), "must not be negative", "pressure_range = [-1"},
+		{"validity phi not two numbers", replace("[[species]]\nname = \"H\"\n", "[validity]\nequivalence_ratio_range = [0.5]\n\n[[species]]\nname = \"H\"\n"), "must hold 2 numbers", "equivalence_ratio_range = [0.5]"},
+		{"validity unknown key", replace("[[species]]\nname = \"H\"\n", "[validity]\nfuel = [\"H2\"]\n\n[[species]]\nname = \"H\"\n"), `unknown key "fuel" in validity`, `fuel = ["H2"]`},
+		{"nasa7 wrong length", replace("low_T_coefficients = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599, -0.446682853]",
+			"low_T_coefficients = [2.5, 7.05332819e-13, -1.99591964e-15, 2.30081632e-18, -9.27732332e-22, 25473.6599]"), "low_T_coefficients must hold 7 numbers, not 6", "low_T_coefficients = [2.5, 7.05332819e-13"},
+		{"T_range not rising", replace("T_range_K = [200, 1000, 3500]\nlow_T_coefficients = [3.1682671", "T_range_K = [200, 3500, 1000]\nlow_T_coefficients = [3.1682671"), "T_range_K must rise", "T_range_K = [200, 3500, 1000]"},
 		{"undeclared element", replace(`atoms = {AR = 1}`, `atoms = {AR = 1, XE = 0}`), `element "XE", which is not declared`, `^name = "AR"`},
 	}
 	for _, c := range cases {
@@ -319,7 +330,7 @@ func TestBrokenInput(t *testing.T) {
 // TestAllProblemsInOrder: one read reports every defect it finds, in file
 // order, not just the first.
 func TestAllProblemsInOrder(t *testing.T) {
-	text := strings.Replace(tinyHeader+tinyReactions, `troe = {a = 0.5`, `trow = {a = 0.5`, 1)
+	text := strings.Replace(tinyHeader+tinyReactions, `troe_broadening = {alpha`, `trow = {alpha`, 1)
 	text = strings.Replace(text, `name = "tiny"`, "name = \"tiny\"\ncolour = \"blue\"", 1)
 	text = strings.Replace(text, `equation = "2O+M<=>O2+M"`, `equation = "2O+M<=>O3+M"`, 1)
 	_, problems, err := readString(t, text)

@@ -53,31 +53,34 @@ func TestWrittenUnits(t *testing.T) {
 	_, text := roundTrip(t, handBuilt())
 	for _, want := range []string{
 		`equation = "H+O2<=>O+OH"`,                      // author's text kept
-		`rate = {A = 2.65e+16, b = -0.6707, E = 17041}`, // cm^3/mol/s and cal/mol as published
-		`rate = {A = 1.2e+17, b = -1, E = 0}`,           // termolecular: cm^6/mol^2/s
-		`{P = 0.01, A = 4.936e+14, b = -0.669, E = -445.8}`,
-		`P = "12345.678 Pa"`,                       // no exact atm form
-		`E = "12345.678901 J/mol"`,                 // no exact cal/mol form
+		`arrhenius = {pre_exponential = 2.65e+16, temperature_exponent = -0.6707, activation_energy = 17041}`, // cm^3/mol/s and cal/mol as published
+		`arrhenius = {pre_exponential = 1.2e+17, temperature_exponent = -1, activation_energy = 0}`,           // termolecular: cm^6/mol^2/s
+		`{pressure = 0.01, pre_exponential = 4.936e+14, temperature_exponent = -0.669, activation_energy = -445.8}`,
+		`pressure = "12345.678 Pa"`,                // no exact atm form
+		`activation_energy = "12345.678901 J/mol"`, // no exact cal/mol form
 		`equation = "CH3 + OH <=> CH2(S) + H2O"`,   // canonical, since the author's (+M) is not a third body here
 		`written_as = "CH3+OH(+M)=CH2(S)+H2O(+M)"`, // author's text kept beside it
 		`equation = "H2O2 + H <=> HO2 + H2"`,       // filled in
-		`{shape = "linear", well_depth = 38, diameter = 2.92, polarizability = 0.79, rotational_relaxation = 280}`,
-		`dipole = 1.844`,
-		`diameter = "2.605e-10 m"`, // 2.605 Å has no exact image of 2.605e-10 m under q*1e-10
+		`{structure = "linear", lj_well_depth_K = 38, lj_diameter_angstrom = 2.92, polarizability_angstrom3 = 0.79, rotational_collision_number_298K = 280}`,
+		`dipole_moment_debye = 1.844`,
+		`lj_diameter_m = 2.605e-10`, // 2.605 Å has no exact image of 2.605e-10 m under q*1e-10
 		`"CH2(S)" = 2`,
 		`(+AR)`,
-		`default_efficiency = 0`,
-		`sri = {a = 0.45, b = 797, c = 979}`,
-		`sri = {a = 1.1, b = 1200, c = 101, d = 1.2, e = -0.3}`,
-		`troe = {a = 0.5, T3 = 1e-30, T1 = 1e+30}`,
+		`unlisted_collision_efficiency = 0`,
+		`sri_broadening = {a = 0.45, b_K = 797, c_K = 979}`,
+		`sri_broadening = {a = 1.1, b_K = 1200, c_K = 101, d = 1.2, e = -0.3}`,
+		`troe_broadening = {alpha = 0.5, T_triple_star_K = 1e-30, T_single_star_K = 1e+30}`,
 		`phase = "condensed"`,
 		`[reaction.chemically_activated]`,
 		`[reaction.chebyshev]`,
 		"[8.684, 0.8, -0.1]",                                    // log10 k in cm^3/mol/s, as an importer converted it
-		"k_units = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
-		`P_range = ["1000 Pa", "1e+07 Pa"]`,
-		`orders = {O2 = 0.8, H2O = 0.1, CH4 = 0.7}`,
-		`reverse_orders = {H2 = 0.25, H2O = 1}`,
+		"rate_constant_unit = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
+		`pressure_range = ["1000 Pa", "1e+07 Pa"]`,
+		"rate_uncertainty_factor = 1.5\narrhenius",
+		"rate_uncertainty_factor = 3.16\n",
+		"[validity]\nfuels = [\"CH4\", \"H2\"]\nunburned_temperature_range_K = [300, 700]\npressure_range = [0.1, \"12345.678 Pa\"]\nequivalence_ratio_range = [0.5, 0]\n",
+		`concentration_exponents = {O2 = 0.8, H2O = 0.1, CH4 = 0.7}`,
+		`reverse_concentration_exponents = {H2 = 0.25, H2O = 1}`,
 	} {
 		if !strings.Contains(text, want) {
 			t.Errorf("written file lacks %s", want)
@@ -148,6 +151,10 @@ func TestWriteRefusesLoss(t *testing.T) {
 			m.Reactions[12].Products = []chem.Participant{{Species: 4, Coefficient: 1}, {Species: 4, Coefficient: 1}}
 		}, "appears twice"},
 		{"index out of range", func(m *chem.Mechanism) { m.Reactions[0].Reactants[0].Species = 99 }, "out of range"},
+		{"uncertainty below 1", func(m *chem.Mechanism) { m.Reactions[0].UncertaintyFactor = 0.9 }, "uncertainty factor"},
+		{"uncertainty NaN", func(m *chem.Mechanism) { m.Reactions[0].UncertaintyFactor = nan() }, "uncertainty factor"},
+		{"validity fuel unknown", func(m *chem.Mechanism) { m.Validity.Fuels = []string{"C8H18"} }, "not a species"},
+		{"validity range reversed", func(m *chem.Mechanism) { m.Validity.Temperature = [2]float64{700, 300} }, "[low, high]"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -212,7 +219,7 @@ func TestChemicallyActivatedUnitOrders(t *testing.T) {
 		FalloffRate: &chem.FalloffRate{Low: chem.Arrhenius{A: 2e7}, High: chem.Arrhenius{A: 5e9}},
 	}}
 	back, text := roundTrip(t, m)
-	if !strings.Contains(text, "low = {A = 2e+13") || !strings.Contains(text, "high = {A = 5e+09") {
+	if !strings.Contains(text, "low_pressure_limit = {pre_exponential = 2e+13") || !strings.Contains(text, "high_pressure_limit = {pre_exponential = 5e+09") {
 		t.Errorf("written limits not in cgs of the right order:\n%s", text)
 	}
 	if d := Diff(m, back); d != "" {

@@ -52,15 +52,23 @@ var pressureUnits = map[string]float64{
 	"Torr": torr,
 }
 
-// unitList returns the keys of a unit table, sorted, for error messages.
-func unitList(m map[string]float64) string {
+// unitNames returns the keys of a unit table, sorted.
+func unitNames(m map[string]float64) []string {
 	names := make([]string, 0, len(m))
 	for k := range m {
 		names = append(names, k)
 	}
 	sort.Strings(names)
-	return strings.Join(names, ", ")
+	return names
 }
+
+// unitList returns the keys of a unit table, sorted, for error messages.
+func unitList(m map[string]float64) string { return strings.Join(unitNames(m), ", ") }
+
+// concentrationUnits are the values of [default_units] concentration: the
+// concentration unit C in which a rate constant of overall order n is
+// written as C^(1-n)/s.
+var concentrationUnits = [...]string{"mol/cm^3", "mol/m^3", "molecule/cm^3", "molecule/m^3"}
 
 // scaleBy converts q to SI by a unit of size f (SI units per unit). The SI
 // unit itself (f == 1) converts exactly.
@@ -282,35 +290,29 @@ var siUnits = units{energy: "J/mol", energyJ: 1, pressure: "Pa", pressPa: 1}
 // mechanisms, so that the numbers read as in their sources.
 var writeUnits = units{energy: "cal/mol", energyJ: calorie, pressure: "atm", pressPa: oneAtmos, lengthCM: true}
 
-// transport units of the format, fixed (a value may carry its own unit).
-const (
-	diameterUnit       = "Å"
-	dipoleUnit         = "D"
-	polarizabilityUnit = "Å^3"
-)
-
-// diameterToSI, dipoleToSI and polarizabilityToSI convert the format's
-// transport units (Å, debye, Å^3) to m, C m, m^3.
+// diameterToSI, dipoleToSI and polarizabilityToSI convert the units of
+// published transport tables (Å, debye, Å^3) to m, C m, m^3.
 func diameterToSI(q float64) float64       { return q * angstrom }
 func dipoleToSI(q float64) float64         { return q * debye }
 func polarizabilityToSI(q float64) float64 { return q * angstrom * angstrom * angstrom }
 
-func identity(q float64) float64 { return q }
+// transportQuantity is a kinetic-theory parameter that a file gives under
+// one of two keys: in the unit of published transport tables (tableKey)
+// or in SI (siKey). The writer uses the table unit whenever that reads
+// back exactly.
+type transportQuantity struct {
+	tableKey, siKey string
+	toSI            func(float64) float64 // table unit -> SI
+	required        bool
+}
 
-// lengthUnits, dipoleUnits and volumeUnits are the per-value units accepted
-// for the transport parameters, with their conversion to SI.
-var (
-	lengthUnits = map[string]func(float64) float64{
-		"Å": diameterToSI, "A": diameterToSI, "angstrom": diameterToSI,
-		"nm": func(q float64) float64 { return q * 1e-9 }, "m": identity,
-	}
-	dipoleUnits = map[string]func(float64) float64{
-		"D": dipoleToSI, "debye": dipoleToSI, "C m": identity, "C*m": identity,
-	}
-	volumeUnits = map[string]func(float64) float64{
-		"Å^3": polarizabilityToSI, "A^3": polarizabilityToSI, "angstrom^3": polarizabilityToSI, "m^3": identity,
-	}
-)
+// transportQuantities are the Lennard-Jones diameter, the dipole moment
+// and the polarizability volume, in the order of chem.TransportParams.
+var transportQuantities = [...]transportQuantity{
+	{"lj_diameter_angstrom", "lj_diameter_m", diameterToSI, true},
+	{"dipole_moment_debye", "dipole_moment_C_m", dipoleToSI, false},
+	{"polarizability_angstrom3", "polarizability_m3", polarizabilityToSI, false},
+}
 
 // invert finds the number q with the fewest significant digits such that
 // toSI(q) == v exactly: first the roundings of guess (the inverse

@@ -118,10 +118,17 @@ func (w *writer) num(v float64) string {
 // itself; else in SI with the SI unit attached.
 func (w *writer) converted(v, guess float64, toSI func(float64) float64, siUnit string) string {
 	s := w.num(v)
-	if q, ok := invert(v, guess, toSI); ok && significantDigits(q) <= significantDigits(v) {
+	if q, ok := inFileUnit(v, guess, toSI); ok {
 		return formatFloat(q)
 	}
 	return quote(s + " " + siUnit)
+}
+
+// inFileUnit returns the number q that toSI brings back to the SI value v
+// exactly, when there is one that needs no more digits than v itself.
+func inFileUnit(v, guess float64, toSI func(float64) float64) (float64, bool) {
+	q, ok := invert(v, guess, toSI)
+	return q, ok && significantDigits(q) <= significantDigits(v)
 }
 
 func (w *writer) energy(v float64) string {
@@ -138,7 +145,8 @@ func (w *writer) preExponential(v, n float64) string {
 }
 
 func (w *writer) arrhenius(a chem.Arrhenius, n float64) string {
-	return fmt.Sprintf("{A = %s, b = %s, E = %s}", w.preExponential(a.A, n), w.num(a.B), w.energy(a.E))
+	return fmt.Sprintf("{%s = %s, %s = %s, %s = %s}", arrheniusKeys[0], w.preExponential(a.A, n),
+		arrheniusKeys[1], w.num(a.B), arrheniusKeys[2], w.energy(a.E))
 }
 
 // quote writes s as a TOML basic string.
@@ -210,8 +218,8 @@ func (w *writer) mechanism() error {
 	m := w.m
 	b := &w.b
 	b.WriteString("# flame1d reaction mechanism (file format described in docs/mechanism-format.md).\n")
-	b.WriteString("# Rate data in the units of [units]; temperatures in K; transport data in K, Å, debye, Å^3.\n")
-	fmt.Fprintf(b, "format = %d\n", FormatVersion)
+	b.WriteString("# Plain numbers of rate data are in the units of [default_units]; other units are in the key names.\n")
+	fmt.Fprintf(b, "format_version = %d\n", FormatVersion)
 	if m.Name != "" {
 		s, err := w.text("mechanism name", m.Name)
 		if err != nil {
@@ -235,7 +243,12 @@ func (w *writer) mechanism() error {
 	}
 	fmt.Fprintf(b, "elements = [%s]\n", strings.Join(els, ", "))
 	u := writeUnits
-	fmt.Fprintf(b, "\n[units]\nenergy = %q\nquantity = %q\nlength = %q\npressure = %q\n", u.energy, "mol", "cm", u.pressure)
+	fmt.Fprintf(b, "\n[default_units]\nactivation_energy = %q\nconcentration = %q\npressure = %q\n", u.energy, "mol/cm^3", u.pressure)
+	if m.Validity != nil {
+		if err := w.validity(m.Validity); err != nil {
+			return fmt.Errorf("validity: %w", err)
+		}
+	}
 	for i := range m.Species {
 		if err := w.species(i); err != nil {
 			return fmt.Errorf("%s: %w", speciesLabel(i, m.Species[i].Name), err)
@@ -285,7 +298,7 @@ func (w *writer) atomsOrder(c map[string]float64) []string {
 	return names
 }
 
-var shapeNames = map[chem.Geometry]string{chem.Atom: "atom", chem.Linear: "linear", chem.Nonlinear: "nonlinear"}
+var structureNames = map[chem.Geometry]string{chem.Atom: "monatomic", chem.Linear: "linear", chem.Nonlinear: "nonlinear"}
 
 func (w *writer) species(i int) error {
 	s := &w.m.Species[i]
@@ -308,26 +321,29 @@ func (w *writer) species(i int) error {
 		b.WriteString("phase = \"condensed\"\n")
 	}
 	if tp := s.Transport; tp != nil {
-		shape, ok := shapeNames[tp.Geometry]
+		structure, ok := structureNames[tp.Geometry]
 		if !ok {
 			return fmt.Errorf("transport geometry %d is not atom (0), linear (1) or nonlinear (2)", tp.Geometry)
 		}
-		fmt.Fprintf(b, "transport = {shape = %q, well_depth = %s, diameter = %s", shape, w.num(tp.WellDepth),
-			w.converted(tp.Diameter, tp.Diameter/angstrom, diameterToSI, "m"))
-		if tp.Dipole != 0 || math.Signbit(tp.Dipole) {
-			fmt.Fprintf(b, ", dipole = %s", w.converted(tp.Dipole, tp.Dipole/debye, dipoleToSI, "C m"))
-		}
-		if tp.Polarizability != 0 || math.Signbit(tp.Polarizability) {
-			fmt.Fprintf(b, ", polarizability = %s",
-				w.converted(tp.Polarizability, tp.Polarizability/(angstrom*angstrom*angstrom), polarizabilityToSI, "m^3"))
+		fmt.Fprintf(b, "kinetic_theory = {structure = %q, lj_well_depth_K = %s", structure, w.num(tp.WellDepth))
+		for i, v := range [...]float64{tp.Diameter, tp.Dipole, tp.Polarizability} {
+			q := transportQuantities[i]
+			if !q.required && v == 0 && !math.Signbit(v) {
+				continue
+			}
+			if x, ok := inFileUnit(v, v/q.toSI(1), q.toSI); ok {
+				fmt.Fprintf(b, ", %s = %s", q.tableKey, formatFloat(x))
+			} else {
+				fmt.Fprintf(b, ", %s = %s", q.siKey, w.num(v))
+			}
 		}
 		if tp.RotRelaxation != 0 || math.Signbit(tp.RotRelaxation) {
-			fmt.Fprintf(b, ", rotational_relaxation = %s", w.num(tp.RotRelaxation))
+			fmt.Fprintf(b, ", rotational_collision_number_298K = %s", w.num(tp.RotRelaxation))
 		}
 		b.WriteString("}\n")
 	}
 	th := &s.Thermo
-	fmt.Fprintf(b, "[species.nasa7]\nT_range = %s\nlow = %s\nhigh = %s\n",
+	fmt.Fprintf(b, "[species.nasa7]\nT_range_K = %s\nlow_T_coefficients = %s\nhigh_T_coefficients = %s\n",
 		w.numberList([]float64{th.TLow, th.TMid, th.THigh}), w.numberList(th.Low[:]), w.numberList(th.High[:]))
 	return w.err
 }
@@ -496,32 +512,38 @@ func (w *writer) reaction(i int) error {
 	if r.Duplicate {
 		b.WriteString("duplicate = true\n")
 	}
+	if f := r.UncertaintyFactor; f != 0 {
+		if !(f >= 1) || math.IsInf(f, 0) {
+			return fmt.Errorf("rate uncertainty factor %v is not a finite number >= 1", f)
+		}
+		fmt.Fprintf(b, "rate_uncertainty_factor = %s\n", formatFloat(f))
+	}
 	n := forwardOrder(r)
 	switch r.Form {
 	case chem.Elementary:
-		fmt.Fprintf(b, "rate = %s\n", w.arrhenius(r.Rate, n))
+		fmt.Fprintf(b, "arrhenius = %s\n", w.arrhenius(r.Rate, n))
 	case chem.ThreeBody:
-		fmt.Fprintf(b, "rate = %s\n", w.arrhenius(r.Rate, n+1))
+		fmt.Fprintf(b, "arrhenius = %s\n", w.arrhenius(r.Rate, n+1))
 	}
 	if col == plusM || col == falloffM {
 		if len(r.ThirdBody.Efficiencies) > 0 {
 			s, err := w.speciesTable(r.ThirdBody.Efficiencies)
 			if err != nil {
-				return fmt.Errorf("efficiencies: %w", err)
+				return fmt.Errorf("collision efficiencies: %w", err)
 			}
-			fmt.Fprintf(b, "efficiencies = %s\n", s)
+			fmt.Fprintf(b, "%s = %s\n", efficienciesKey, s)
 		}
 		if d := r.ThirdBody.Default; d != 1 {
-			fmt.Fprintf(b, "default_efficiency = %s\n", w.num(d))
+			fmt.Fprintf(b, "%s = %s\n", unlistedEfficiencyKey, w.num(d))
 		}
 	}
 	if r.ReverseRate != nil {
-		fmt.Fprintf(b, "reverse_rate = %s\n", w.arrhenius(*r.ReverseRate, reverseOrder(r)))
+		fmt.Fprintf(b, "reverse_arrhenius = %s\n", w.arrhenius(*r.ReverseRate, reverseOrder(r)))
 	}
 	for _, o := range []struct {
 		key string
 		m   map[int]float64
-	}{{"orders", r.Orders}, {"reverse_orders", r.ReverseOrders}} {
+	}{{"concentration_exponents", r.Orders}, {"reverse_concentration_exponents", r.ReverseOrders}} {
 		if len(o.m) == 0 {
 			continue
 		}
@@ -539,16 +561,16 @@ func (w *writer) reaction(i int) error {
 		}
 		f := r.FalloffRate
 		nh := highOrder(r.Form, n)
-		fmt.Fprintf(b, "[reaction.%s]\nlow = %s\nhigh = %s\n", name, w.arrhenius(f.Low, nh+1), w.arrhenius(f.High, nh))
+		fmt.Fprintf(b, "[reaction.%s]\nlow_pressure_limit = %s\nhigh_pressure_limit = %s\n", name, w.arrhenius(f.Low, nh+1), w.arrhenius(f.High, nh))
 		if t := f.Troe; t != nil {
-			fmt.Fprintf(b, "troe = {a = %s, T3 = %s, T1 = %s", w.num(t.A), w.num(t.T3), w.num(t.T1))
+			fmt.Fprintf(b, "troe_broadening = {alpha = %s, T_triple_star_K = %s, T_single_star_K = %s", w.num(t.A), w.num(t.T3), w.num(t.T1))
 			if t.HasT2 {
-				fmt.Fprintf(b, ", T2 = %s", w.num(t.T2))
+				fmt.Fprintf(b, ", T_double_star_K = %s", w.num(t.T2))
 			}
 			b.WriteString("}\n")
 		}
 		if s := f.SRI; s != nil {
-			fmt.Fprintf(b, "sri = {a = %s, b = %s, c = %s", w.num(s.A), w.num(s.B), w.num(s.C))
+			fmt.Fprintf(b, "sri_broadening = {a = %s, b_K = %s, c_K = %s", w.num(s.A), w.num(s.B), w.num(s.C))
 			if s.D != 1 || s.E != 0 || math.Signbit(s.E) {
 				fmt.Fprintf(b, ", d = %s, e = %s", w.num(s.D), w.num(s.E))
 			}
@@ -558,7 +580,7 @@ func (w *writer) reaction(i int) error {
 		b.WriteString("pressure_table = [\n")
 		for _, pr := range r.PressureRates {
 			a := w.arrhenius(pr.Rate, n)
-			fmt.Fprintf(b, "  {P = %s, %s},\n", w.pressure(pr.P), a[1:len(a)-1])
+			fmt.Fprintf(b, "  {pressure = %s, %s},\n", w.pressure(pr.P), a[1:len(a)-1])
 		}
 		b.WriteString("]\n")
 	case chem.Chebyshev:
@@ -569,7 +591,7 @@ func (w *writer) reaction(i int) error {
 
 // chebyshev writes the Chebyshev table. The unit change of k is folded into
 // the first coefficient; when it cannot be undone exactly the coefficients
-// are written as held (log10 of k in SI) with k_units saying so.
+// are written as held (log10 of k in SI) with rate_constant_unit saying so.
 func (w *writer) chebyshev(c *chem.ChebyshevRate, n float64) {
 	b := &w.b
 	u := tableRateUnit(writeUnits, n)
@@ -578,10 +600,10 @@ func (w *writer) chebyshev(c *chem.ChebyshevRate, n float64) {
 	if !ok {
 		c00 = c.Coeffs[0][0]
 	}
-	fmt.Fprintf(b, "[reaction.chebyshev]\nT_range = %s\nP_range = [%s, %s]\n",
+	fmt.Fprintf(b, "[reaction.chebyshev]\nT_range_K = %s\npressure_range = [%s, %s]\n",
 		w.numberList([]float64{c.TMin, c.TMax}), w.pressure(c.PMin), w.pressure(c.PMax))
 	if !ok {
-		fmt.Fprintf(b, "k_units = %q\n", tableRateUnit(siUnits, n).String())
+		fmt.Fprintf(b, "rate_constant_unit = %q\n", tableRateUnit(siUnits, n).String())
 	}
 	b.WriteString("coefficients = [\n")
 	for i, row := range c.Coeffs {
