@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"flame1d/chem"
+	"flame1d/chem/internal/equation"
 	"flame1d/thermo"
 )
 
@@ -159,177 +160,44 @@ func parseEquationLine(text string, pos chem.Position, sp *speciesIndex, p *prob
 	return pr
 }
 
-// parseEquation splits the compacted equation into its two sides and reads
-// arrow, colliders and participants. It returns an error message or "".
+// parseEquation reads the compacted equation (blanks removed) with the
+// parser shared with flame1d's TOML reader: arrow, colliders and
+// participants. Species are looked up case-insensitively. It returns an
+// error message or "".
 func (pr *pending) parseEquation(eq string, sp *speciesIndex) string {
-	var lhs, rhs string
-	switch {
-	case strings.Count(eq, "<=>") == 1:
-		lhs, rhs, _ = strings.Cut(eq, "<=>")
-		pr.r.Reversible = true
-	case strings.Count(eq, "=>") == 1 && strings.Count(eq, "=") == 1:
-		lhs, rhs, _ = strings.Cut(eq, "=>")
-	case strings.Count(eq, "=") == 1 && !strings.Contains(eq, "<="):
-		lhs, rhs, _ = strings.Cut(eq, "=")
-		pr.r.Reversible = true
-	default:
-		return "equation needs exactly one of '=', '<=>' or '=>'"
-	}
-	lc, lk, lhs := splitFalloffCollider(lhs, sp)
-	rc, rk, rhs := splitFalloffCollider(rhs, sp)
-	if lc != rc || lk != rk {
-		return fmt.Sprintf("collider '(+%s)' on the left does not match '(+%s)' on the right", lc, rc)
-	}
-	if lc != "" {
-		pr.collider, pr.colliderK, pr.falloff = lc, lk, true
-	}
-	var m [2]bool
-	var msg string
-	pr.r.Reactants, m[0], msg = parseSide(lhs, sp)
-	if msg != "" {
-		return msg
-	}
-	pr.r.Products, m[1], msg = parseSide(rhs, sp)
-	if msg != "" {
-		return msg
-	}
-	if m[0] != m[1] {
-		return "third body '+M' must appear on both sides"
-	}
-	if m[0] {
-		if pr.falloff {
-			return "both '+M' and a '(+M)' collider"
+	e, err := equation.Parse(eq, func(name string) int {
+		if k, ok := sp.find(name); ok {
+			return k
 		}
+		return -1
+	})
+	if err != nil {
+		return err.Error()
+	}
+	pr.r.Reactants, pr.r.Products, pr.r.Reversible = e.Reactants, e.Products, e.Reversible
+	switch e.Collider {
+	case equation.PlusM:
 		pr.collider = "M"
+	case equation.FalloffM:
+		pr.collider, pr.colliderK, pr.falloff = "M", -1, true
+	case equation.FalloffSpecific:
+		pr.collider, pr.colliderK, pr.falloff = pr.speciesName(e.Specific, eq), e.Specific, true
 	}
 	return ""
 }
 
-// splitFalloffCollider removes a trailing "(+M)" or "(+species)" from one
-// side of an equation. It returns the collider as written ("" if none), the
-// specific collider's species index (-1 for M) and the rest of the side.
-func splitFalloffCollider(side string, sp *speciesIndex) (collider string, k int, rest string) {
-	i := strings.LastIndex(side, "(+")
-	if i < 0 || !strings.HasSuffix(side, ")") {
-		return "", -1, side
+// speciesName is the collider as its equation spells it: the text inside
+// the trailing "(+...)".
+func (pr *pending) speciesName(k int, eq string) string {
+	if i := strings.LastIndex(eq, "(+"); i >= 0 && strings.HasSuffix(eq, ")") {
+		return eq[i+2 : len(eq)-1]
 	}
-	name := side[i+2 : len(side)-1]
-	if strings.EqualFold(name, "M") {
-		return "M", -1, side[:i]
-	}
-	// A species whose own name ends in "(+X)" wins over a collider.
-	if k, ok := sp.find(name); ok {
-		if _, whole := sp.find(side); !whole {
-			return name, k, side[:i]
-		}
-	}
-	return "", -1, side
-}
-
-// parseSide reads "2OH+H2O+M" into participants; repeated species are
-// merged. It reports whether a "+M" third body is present.
-func parseSide(side string, sp *speciesIndex) ([]chem.Participant, bool, string) {
-	if side == "" {
-		return nil, false, "empty side"
-	}
-	pieces := strings.Split(side, "+")
-	var out []chem.Participant
-	hasM := false
-	// Species names may themselves contain '+': join pieces greedily,
-	// longest name first (no longer than the longest name plus a
-	// coefficient).
-	for i := 0; i < len(pieces); {
-		matched := false
-		for j := len(pieces); j > i; j-- {
-			if span := j - i - 1 + totalLen(pieces[i:j]); span > sp.maxLen+maxCoefficientLen {
-				continue
-			}
-			term := strings.Join(pieces[i:j], "+")
-			if term == "" {
-				continue
-			}
-			if strings.EqualFold(term, "M") {
-				if _, isSpecies := sp.find(term); !isSpecies {
-					if hasM {
-						return nil, false, "'+M' appears twice on one side"
-					}
-					hasM = true
-					i, matched = j, true
-					break
-				}
-			}
-			if k, c, ok := parseTerm(term, sp); ok {
-				out = addParticipant(out, k, c)
-				i, matched = j, true
-				break
-			}
-		}
-		if !matched {
-			name := pieces[i]
-			_, bare := splitCoefficient(name)
-			if bare == "" {
-				return nil, false, fmt.Sprintf("malformed term '%s'", name)
-			}
-			return nil, false, fmt.Sprintf("unknown species '%s'", bare)
-		}
-	}
-	if len(out) == 0 {
-		return nil, hasM, "no species on one side"
-	}
-	return out, hasM, ""
-}
-
-// maxCoefficientLen bounds the length of a written stoichiometric
-// coefficient ("0.333333").
-const maxCoefficientLen = 24
-
-func totalLen(ss []string) int {
-	n := 0
-	for _, s := range ss {
-		n += len(s)
-	}
-	return n
+	return fmt.Sprintf("species %d", k+1)
 }
 
 func isSpecies(sp *speciesIndex, name string) bool {
 	_, ok := sp.find(name)
 	return ok
-}
-
-func addParticipant(ps []chem.Participant, k int, c float64) []chem.Participant {
-	for i := range ps {
-		if ps[i].Species == k {
-			ps[i].Coefficient += c
-			return ps
-		}
-	}
-	return append(ps, chem.Participant{Species: k, Coefficient: c})
-}
-
-// parseTerm reads "SPECIES" or "<coefficient>SPECIES" (2OH, 0.5C2H4).
-func parseTerm(term string, sp *speciesIndex) (int, float64, bool) {
-	if k, ok := sp.find(term); ok {
-		return k, 1, true
-	}
-	num, rest := splitCoefficient(term)
-	if num == "" || rest == "" {
-		return 0, 0, false
-	}
-	c, err := parseNumber(num)
-	if err != nil || !(c > 0) {
-		return 0, 0, false
-	}
-	k, ok := sp.find(rest)
-	return k, c, ok
-}
-
-// splitCoefficient splits a leading decimal number off a term.
-func splitCoefficient(term string) (num, rest string) {
-	i := 0
-	for i < len(term) && (term[i] >= '0' && term[i] <= '9' || term[i] == '.') {
-		i++
-	}
-	return term[:i], term[i:]
 }
 
 // auxItem is one "KEYWORD" or "KEYWORD / values /" item of an auxiliary line.

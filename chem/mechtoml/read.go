@@ -14,6 +14,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"flame1d/chem"
+	"flame1d/chem/internal/equation"
 )
 
 // FormatVersion is the version of the mechanism file format this package
@@ -361,10 +362,10 @@ func (rd *reader) array(v any, path []string, label, what string) ([]any, bool) 
 type kind int
 
 const (
-	dimensionless  kind = iota
-	temperature         // K
-	energy              // activation energy, [default_units] activation_energy
-	pressure            // [default_units] pressure
+	dimensionless kind = iota
+	temperature        // K
+	energy             // activation energy, [default_units] activation_energy
+	pressure           // [default_units] pressure
 )
 
 var kindNames = [...]string{"a plain number", "a temperature", "an energy", "a pressure"}
@@ -684,7 +685,7 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 	if text == "" {
 		return r, false
 	}
-	eq, err := parseEquation(text, rd.speciesIndex)
+	eq, err := equation.Parse(text, rd.speciesIndex)
 	if err != nil {
 		rd.errorf(sub(path, "equation"), label, "%v", err)
 		return r, false
@@ -693,7 +694,7 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 	if v, ok := t["written_as"]; ok {
 		r.Equation, _ = rd.str(v, sub(path, "written_as"), label, "written_as")
 	}
-	r.Reactants, r.Products, r.Reversible = eq.reactants, eq.products, eq.reversible
+	r.Reactants, r.Products, r.Reversible = eq.Reactants, eq.Products, eq.Reversible
 	if v, ok := t["duplicate"]; ok {
 		b, isBool := v.(bool)
 		if !isBool {
@@ -737,23 +738,23 @@ func (rd *reader) readReaction(i int, t map[string]any) (chem.Reaction, bool) {
 	n := forwardOrder(&r)
 	switch r.Form {
 	case chem.Elementary:
-		if eq.collider == falloffM || eq.collider == falloffSpecific {
+		if eq.Collider == equation.FalloffM || eq.Collider == equation.FalloffSpecific {
 			rd.errorf(sub(path, key), label, "the equation has a falloff collider (+M); give the rate as a falloff or chemically_activated table")
 			return r, false
 		}
-		if eq.collider == plusM {
+		if eq.Collider == equation.PlusM {
 			r.Form = chem.ThreeBody
 			n++
 		}
 		r.Rate, _ = rd.arrhenius(t[key], sub(path, key), label, n)
 	case chem.Falloff, chem.ChemicallyActivated:
-		if eq.collider != falloffM && eq.collider != falloffSpecific {
+		if eq.Collider != equation.FalloffM && eq.Collider != equation.FalloffSpecific {
 			rd.errorf(sub(path, key), label, "a %s rate needs a falloff collider in the equation, e.g. \"A + B (+M) <=> AB (+M)\"", key)
 			return r, false
 		}
 		r.FalloffRate = rd.falloff(t[key], sub(path, key), label, highOrder(r.Form, n))
 	case chem.PressureTable, chem.Chebyshev:
-		if eq.collider != noCollider {
+		if eq.Collider != equation.NoCollider {
 			rd.errorf(sub(path, "equation"), label, "a %s rate has no third body; write the equation without M", key)
 			return r, false
 		}
@@ -788,25 +789,25 @@ func (rd *reader) speciesIndex(name string) int {
 }
 
 // readThirdBody sets the collision efficiencies of a step with a third body.
-func (rd *reader) readThirdBody(t map[string]any, path []string, label string, r *chem.Reaction, eq *equation) {
+func (rd *reader) readThirdBody(t map[string]any, path []string, label string, r *chem.Reaction, eq *equation.Equation) {
 	_, hasEff := t[efficienciesKey]
 	_, hasDef := t[unlistedEfficiencyKey]
-	switch eq.collider {
-	case noCollider:
+	switch eq.Collider {
+	case equation.NoCollider:
 		for _, k := range []string{efficienciesKey, unlistedEfficiencyKey} {
 			if _, ok := t[k]; ok {
 				rd.errorf(sub(path, k), label, "%s given, but the equation has no third body M", k)
 			}
 		}
 		return
-	case falloffSpecific:
+	case equation.FalloffSpecific:
 		for _, k := range []string{efficienciesKey, unlistedEfficiencyKey} {
 			if _, ok := t[k]; ok {
 				rd.errorf(sub(path, k), label, "%s given, but the equation names one collider (+%s); write (+M) to use collision efficiencies",
-					k, rd.mech.Species[eq.specific].Name)
+					k, rd.mech.Species[eq.Specific].Name)
 			}
 		}
-		r.ThirdBody = &chem.ThirdBody{Efficiencies: map[int]float64{eq.specific: 1}}
+		r.ThirdBody = &chem.ThirdBody{Efficiencies: map[int]float64{eq.Specific: 1}}
 		return
 	}
 	tb := &chem.ThirdBody{Default: 1}

@@ -52,7 +52,7 @@ func TestRoundTripExact(t *testing.T) {
 func TestWrittenUnits(t *testing.T) {
 	_, text := roundTrip(t, handBuilt())
 	for _, want := range []string{
-		`equation = "H+O2<=>O+OH"`,                      // author's text kept
+		`equation = "H+O2<=>O+OH"`, // author's text kept
 		`arrhenius = {pre_exponential = 2.65e+16, temperature_exponent = -0.6707, activation_energy = 17041}`, // cm^3/mol/s and cal/mol as published
 		`arrhenius = {pre_exponential = 1.2e+17, temperature_exponent = -1, activation_energy = 0}`,           // termolecular: cm^6/mol^2/s
 		`{pressure = 0.01, pre_exponential = 4.936e+14, temperature_exponent = -0.669, activation_energy = -445.8}`,
@@ -73,7 +73,7 @@ func TestWrittenUnits(t *testing.T) {
 		`phase = "condensed"`,
 		`[reaction.chemically_activated]`,
 		`[reaction.chebyshev]`,
-		"[8.684, 0.8, -0.1]",                                    // log10 k in cm^3/mol/s, as an importer converted it
+		"[8.684, 0.8, -0.1]", // log10 k in cm^3/mol/s, as an importer converted it
 		"rate_constant_unit = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
 		`pressure_range = ["1000 Pa", "1e+07 Pa"]`,
 		"rate_uncertainty_factor = 1.5\narrhenius",

@@ -14,6 +14,7 @@ import (
 	"unicode/utf8"
 
 	"flame1d/chem"
+	"flame1d/chem/internal/equation"
 )
 
 // formatFloat writes v exactly and briefly (shortest representation that
@@ -349,29 +350,29 @@ func (w *writer) species(i int) error {
 }
 
 // colliderOf is the third body that reaction r's equation must name.
-func colliderOf(r *chem.Reaction) (collider, int, error) {
+func colliderOf(r *chem.Reaction) (equation.Collider, int, error) {
 	tb := r.ThirdBody
 	switch r.Form {
 	case chem.Elementary, chem.PressureTable, chem.Chebyshev:
 		if tb != nil {
 			return 0, 0, errors.New("collision efficiencies on a step without a third body (form has no [M])")
 		}
-		return noCollider, 0, nil
+		return equation.NoCollider, 0, nil
 	case chem.ThreeBody, chem.Falloff, chem.ChemicallyActivated:
 		if tb == nil {
 			return 0, 0, errors.New("third-body or falloff form without collision efficiencies")
 		}
 		if r.Form == chem.ThreeBody {
-			return plusM, 0, nil
+			return equation.PlusM, 0, nil
 		}
 		if tb.Default == 0 && !math.Signbit(tb.Default) && len(tb.Efficiencies) == 1 {
 			for k, e := range tb.Efficiencies {
 				if e == 1 {
-					return falloffSpecific, k, nil
+					return equation.FalloffSpecific, k, nil
 				}
 			}
 		}
-		return falloffM, 0, nil
+		return equation.FalloffM, 0, nil
 	}
 	return 0, 0, fmt.Errorf("unknown rate form %d", r.Form)
 }
@@ -433,7 +434,7 @@ func (w *writer) equationText(r *chem.Reaction) (eqText, writtenAs string, err e
 	if err != nil {
 		return "", "", err
 	}
-	want := equation{reactants: r.Reactants, products: r.Products, reversible: r.Reversible, collider: col, specific: specific}
+	want := equation.Equation{Reactants: r.Reactants, Products: r.Products, Reversible: r.Reversible, Collider: col, Specific: specific}
 	for _, side := range [][]chem.Participant{r.Reactants, r.Products} {
 		for i, p := range side {
 			if p.Species < 0 || p.Species >= len(w.m.Species) {
@@ -457,7 +458,7 @@ func (w *writer) equationText(r *chem.Reaction) (eqText, writtenAs string, err e
 		return -1
 	}
 	if r.Equation != "" && utf8.ValidString(r.Equation) {
-		if got, err := parseEquation(r.Equation, index); err == nil && got.sameAs(&want) {
+		if got, err := equation.Parse(r.Equation, index); err == nil && got.SameAs(&want) {
 			return r.Equation, "", nil
 		}
 	}
@@ -465,8 +466,8 @@ func (w *writer) equationText(r *chem.Reaction) (eqText, writtenAs string, err e
 	for i := range w.m.Species {
 		names[i] = w.m.Species[i].Name
 	}
-	canon := formatEquation(&want, names)
-	if got, err := parseEquation(canon, index); err != nil || !got.sameAs(&want) {
+	canon := equation.Format(&want, names)
+	if got, err := equation.Parse(canon, index); err != nil || !got.SameAs(&want) {
 		return "", "", fmt.Errorf("its equation cannot be written so that it reads back the same (species names %s)", canon)
 	}
 	if !utf8.ValidString(r.Equation) {
@@ -525,7 +526,7 @@ func (w *writer) reaction(i int) error {
 	case chem.ThreeBody:
 		fmt.Fprintf(b, "arrhenius = %s\n", w.arrhenius(r.Rate, n+1))
 	}
-	if col == plusM || col == falloffM {
+	if col == equation.PlusM || col == equation.FalloffM {
 		if len(r.ThirdBody.Efficiencies) > 0 {
 			s, err := w.speciesTable(r.ThirdBody.Efficiencies)
 			if err != nil {

@@ -28,9 +28,21 @@ func MechanismsDir(t testing.TB) string {
 		}
 		dir = parent
 	}
-	shared := filepath.Join(filepath.Dir(dir), "shared", "data", "mechanisms")
-	if _, err := os.Stat(shared); err != nil {
-		t.Skipf("shared mechanism data not found at %s (tests that need it are skipped): %v", shared, err)
+	// The sibling of the repository, or of a folder above it (a git
+	// worktree kept one level further down).
+	first := ""
+	for d := filepath.Dir(dir); ; d = filepath.Dir(d) {
+		shared := filepath.Join(d, "shared", "data", "mechanisms")
+		if first == "" {
+			first = shared
+		}
+		if _, err := os.Stat(shared); err == nil {
+			return shared
+		}
+		if filepath.Dir(d) == d {
+			break
+		}
 	}
-	return shared
+	t.Skipf("shared mechanism data not found at %s or beside a folder above it (tests that need it are skipped)", first)
+	return ""
 }

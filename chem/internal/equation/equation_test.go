@@ -1,4 +1,4 @@
-package mechtoml
+package equation
 
 import (
 	"fmt"
@@ -18,23 +18,23 @@ func TestParseEquation(t *testing.T) {
 		}
 		return -1
 	}
-	show := func(e equation) string {
+	show := func(e Equation) string {
 		side := func(ps []participantView) string { return fmt.Sprint(ps) }
 		var r, p []participantView
-		for _, x := range e.reactants {
+		for _, x := range e.Reactants {
 			r = append(r, participantView{names[x.Species], x.Coefficient})
 		}
-		for _, x := range e.products {
+		for _, x := range e.Products {
 			p = append(p, participantView{names[x.Species], x.Coefficient})
 		}
-		s := side(r) + map[bool]string{true: " <=> ", false: " => "}[e.reversible] + side(p)
-		switch e.collider {
-		case plusM:
+		s := side(r) + map[bool]string{true: " <=> ", false: " => "}[e.Reversible] + side(p)
+		switch e.Collider {
+		case PlusM:
 			s += " +M"
-		case falloffM:
+		case FalloffM:
 			s += " (+M)"
-		case falloffSpecific:
-			s += " (+" + names[e.specific] + ")"
+		case FalloffSpecific:
+			s += " (+" + names[e.Specific] + ")"
 		}
 		return s
 	}
@@ -54,7 +54,7 @@ func TestParseEquation(t *testing.T) {
 		{"1-C4H8 <=> C4H8", "[{1-C4H8 1}] <=> [{C4H8 1}]"},
 	}
 	for _, c := range cases {
-		e, err := parseEquation(c.in, index)
+		e, err := Parse(c.in, index)
 		if err != nil {
 			t.Errorf("%q: %v", c.in, err)
 			continue
@@ -68,6 +68,7 @@ func TestParseEquation(t *testing.T) {
 		{"H + O2 <=> O + OH <=> X", "more than one arrow"},
 		{"H + O3 <=> O + OH", `unknown species "O3"`},
 		{"H + O2 (+M) <=> HO2", "both sides"},
+		{"H + O2 (+M) <=> HO2 (+AR)", "(+M) on the left does not match (+AR)"},
 		{"H + O2 + M <=> HO2", "both sides"},
 		{"H + O2 (+M) + X <=> HO2 (+M) + X", "must end its side"},
 		{"H + M + M <=> HO2 + M + M", "only once"},
@@ -80,7 +81,7 @@ func TestParseEquation(t *testing.T) {
 		{"M <=> M", "no species"},
 	}
 	for _, c := range bad {
-		_, err := parseEquation(c.in, index)
+		_, err := Parse(c.in, index)
 		if err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("%q: error %v, want one containing %q", c.in, err, c.want)
 		}
@@ -105,11 +106,11 @@ func TestParseLongSide(t *testing.T) {
 		return -1
 	}
 	left := strings.Repeat("X+", 4999) + "X"
-	e, err := parseEquation(left+" <=> Y", index)
+	e, err := Parse(left+" <=> Y", index)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(e.reactants) != 1 || e.reactants[0].Coefficient != 5000 {
-		t.Errorf("read %v, want 5000 X", e.reactants)
+	if len(e.Reactants) != 1 || e.Reactants[0].Coefficient != 5000 {
+		t.Errorf("read %v, want 5000 X", e.Reactants)
 	}
 }

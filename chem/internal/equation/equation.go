@@ -1,4 +1,9 @@
-package mechtoml
+// Package equation reads and writes reaction equations ("H + O2 (+M) <=>
+// HO2 (+M)", "2O+M=O2+M", "CH4 + 1.5 O2 => CO + 2 H2O"): the one parser
+// behind both mechanism readers, flame1d's TOML format (chem/mechtoml) and
+// the classic keyword-block format (chem/keyblock), so that one equation
+// text gives one step in both.
+package equation
 
 import (
 	"errors"
@@ -10,28 +15,28 @@ import (
 	"flame1d/chem"
 )
 
-// collider says which third body an equation names.
-type collider int
+// Collider says which third body an equation names.
+type Collider int
 
 const (
-	noCollider      collider = iota
-	plusM                    // "A + B + M": efficiency-weighted third body
-	falloffM                 // "A + B (+M)": falloff with the weighted bath
-	falloffSpecific          // "A + B (+AR)": falloff with one collision partner
+	NoCollider      Collider = iota
+	PlusM                    // "A + B + M": efficiency-weighted third body
+	FalloffM                 // "A + B (+M)": falloff with the weighted bath
+	FalloffSpecific          // "A + B (+AR)": falloff with one collision partner
 )
 
-// equation is what a reaction equation says: both sides, direction and
+// Equation is what a reaction equation says: both sides, direction and
 // third body.
-type equation struct {
-	reactants, products []chem.Participant
-	reversible          bool
-	collider            collider
-	specific            int // species index of a specific falloff collider
+type Equation struct {
+	Reactants, Products []chem.Participant
+	Reversible          bool
+	Collider            Collider
+	Specific            int // species index of a specific falloff collider
 }
 
-// sameAs reports whether two equations describe the same step exactly
+// SameAs reports whether two equations describe the same step exactly
 // (participants in the same order with identical coefficients).
-func (e *equation) sameAs(o *equation) bool {
+func (e *Equation) SameAs(o *Equation) bool {
 	same := func(a, b []chem.Participant) bool {
 		if len(a) != len(b) {
 			return false
@@ -43,29 +48,31 @@ func (e *equation) sameAs(o *equation) bool {
 		}
 		return true
 	}
-	return e.reversible == o.reversible && e.collider == o.collider &&
-		(e.collider != falloffSpecific || e.specific == o.specific) &&
-		same(e.reactants, o.reactants) && same(e.products, o.products)
+	return e.Reversible == o.Reversible && e.Collider == o.Collider &&
+		(e.Collider != FalloffSpecific || e.Specific == o.Specific) &&
+		same(e.Reactants, o.Reactants) && same(e.Products, o.Products)
 }
 
 // isThirdBodyName reports whether a term names the generic third body.
 func isThirdBodyName(s string) bool { return s == "M" || s == "m" }
 
-// parseEquation reads "H + O2 (+M) <=> HO2 (+M)", "2O+M<=>O2+M",
+// Parse reads "H + O2 (+M) <=> HO2 (+M)", "2O+M<=>O2+M",
 // "nc7h16 = h + c7h15", "CH4 + 0.5 O2 => CO + 2 H2" and the like. The arrow
 // is "<=>" or "=" (reversible) or "=>" (irreversible). Species are found by
 // name through index (-1 for unknown). Terms may be written without blanks
 // around "+" as long as the split into known species names is unique;
-// a coefficient precedes its species, with or without a blank.
-func parseEquation(text string, index func(string) int) (equation, error) {
-	var eq equation
+// a coefficient precedes its species, with or without a blank. A species
+// repeated on one side is merged into its first appearance ("H + H" is
+// "2 H").
+func Parse(text string, index func(string) int) (Equation, error) {
+	var eq Equation
 	var left, right string
 	if i := strings.Index(text, "<=>"); i >= 0 {
-		left, right, eq.reversible = text[:i], text[i+3:], true
+		left, right, eq.Reversible = text[:i], text[i+3:], true
 	} else if i := strings.Index(text, "=>"); i >= 0 {
 		left, right = text[:i], text[i+2:]
 	} else if i := strings.Index(text, "="); i >= 0 {
-		left, right, eq.reversible = text[:i], text[i+1:], true
+		left, right, eq.Reversible = text[:i], text[i+1:], true
 	} else {
 		return eq, errors.New("no arrow (write <=>, = or =>)")
 	}
@@ -80,15 +87,18 @@ func parseEquation(text string, index func(string) int) (equation, error) {
 	if err != nil {
 		return eq, err
 	}
-	if lcol != rcol || lname != rname {
+	if lcol && rcol && lname != rname {
+		return eq, fmt.Errorf("falloff collider (+%s) on the left does not match (+%s) on the right", lname, rname)
+	}
+	if lcol != rcol {
 		return eq, errors.New("a falloff collider such as (+M) must be written on both sides")
 	}
 	var lm, rm int
-	eq.reactants, lm, err = parseSide(left, index)
+	eq.Reactants, lm, err = parseSide(left, index)
 	if err != nil {
 		return eq, fmt.Errorf("reactants: %w", err)
 	}
-	eq.products, rm, err = parseSide(right, index)
+	eq.Products, rm, err = parseSide(right, index)
 	if err != nil {
 		return eq, fmt.Errorf("products: %w", err)
 	}
@@ -102,15 +112,15 @@ func parseEquation(text string, index func(string) int) (equation, error) {
 	case lcol && lm > 0:
 		return eq, errors.New("both (+M) and + M in one equation")
 	case lcol && isThirdBodyName(lname):
-		eq.collider = falloffM
+		eq.Collider = FalloffM
 	case lcol:
 		k := index(lname)
 		if k < 0 {
 			return eq, fmt.Errorf("unknown collider species %q in (+%s)", lname, lname)
 		}
-		eq.collider, eq.specific = falloffSpecific, k
+		eq.Collider, eq.Specific = FalloffSpecific, k
 	case lm > 0:
-		eq.collider = plusM
+		eq.Collider = PlusM
 	}
 	return eq, nil
 }
@@ -204,8 +214,7 @@ func parseSide(side string, index func(string) int) ([]chem.Participant, int, er
 }
 
 // addParticipant adds c of species k to a side, merging a repeated species
-// into its first appearance ("H + H" is "2 H"), as the keyword-block
-// importer does, so one equation text gives one step in both readers.
+// into its first appearance ("H + H" is "2 H").
 func addParticipant(side []chem.Participant, k int, c float64) []chem.Participant {
 	for i := range side {
 		if side[i].Species == k {
@@ -277,10 +286,11 @@ func parseTerm(s string, index func(string) int) (term, bool) {
 	return term{species: k, coefficient: c}, true
 }
 
-// formatEquation writes an equation canonically: "2 H + O2 (+M) <=> ...",
-// blanks around '+' and the arrow, coefficients other than 1 before their
-// species.
-func formatEquation(e *equation, names []string) string {
+// Format writes an equation canonically: "2 H + O2 (+M) <=> ...", blanks
+// around '+' and the arrow, coefficients other than 1 (in their shortest
+// exact decimal form) before their species. names are the species names by
+// index.
+func Format(e *Equation, names []string) string {
 	var b strings.Builder
 	side := func(ps []chem.Participant) {
 		for i, p := range ps {
@@ -288,26 +298,26 @@ func formatEquation(e *equation, names []string) string {
 				b.WriteString(" + ")
 			}
 			if p.Coefficient != 1 {
-				b.WriteString(formatFloat(p.Coefficient))
+				b.WriteString(strconv.FormatFloat(p.Coefficient, 'g', -1, 64))
 				b.WriteByte(' ')
 			}
 			b.WriteString(names[p.Species])
 		}
-		switch e.collider {
-		case plusM:
+		switch e.Collider {
+		case PlusM:
 			b.WriteString(" + M")
-		case falloffM:
+		case FalloffM:
 			b.WriteString(" (+M)")
-		case falloffSpecific:
-			b.WriteString(" (+" + names[e.specific] + ")")
+		case FalloffSpecific:
+			b.WriteString(" (+" + names[e.Specific] + ")")
 		}
 	}
-	side(e.reactants)
-	if e.reversible {
+	side(e.Reactants)
+	if e.Reversible {
 		b.WriteString(" <=> ")
 	} else {
 		b.WriteString(" => ")
 	}
-	side(e.products)
+	side(e.Products)
 	return b.String()
 }
