@@ -2,7 +2,10 @@
 // so that their names work on a machine without any data files. Every
 // built-in is named first author, year of publication and what it burns:
 // smith1999-natgas (GRI-Mech 3.0), burke2012-hydrogen (Burke et al. 2012
-// hydrogen/oxygen) and lu2009-heptane (Lu et al. 2009 skeletal n-heptane).
+// hydrogen/oxygen), lu2009-heptane (Lu et al. 2009 skeletal n-heptane) and
+// ranzi2012-c1c3 (the CRECK C1-C3 high-temperature set, Ranzi et al.
+// 2012), each with the fuels and conditions it was validated for in its
+// [validity] table; Catalogue describes them.
 // Each is a file in
 // flame1d's TOML mechanism format (package flame1d/chem/mechtoml) under
 // mechanisms/, converted from the published files by the keyword-block
@@ -51,7 +54,8 @@ func Names() []string {
 	return names
 }
 
-func isBuiltin(name string) bool {
+// IsName reports whether name is the name of a built-in mechanism.
+func IsName(name string) bool {
 	for _, n := range Names() {
 		if n == name {
 			return true
@@ -63,18 +67,25 @@ func isBuiltin(name string) bool {
 // Mechanism parses and returns the built-in mechanism of that name.
 // Positions in messages and Origins read "builtin/mechanisms/NAME.toml".
 func Mechanism(name string) (*chem.Mechanism, error) {
-	if !isBuiltin(name) {
-		return nil, unknownName(name)
+	m, _, err := Read(name)
+	return m, err
+}
+
+// Read is Mechanism with the problems (warnings) the reader and the
+// mechanism checks report, as "flame1d mech check" lists them.
+func Read(name string) (*chem.Mechanism, []chem.Problem, error) {
+	if !IsName(name) {
+		return nil, nil, unknownName(name)
 	}
 	data, err := files.ReadFile(fileOf(name))
 	if err != nil {
-		return nil, fmt.Errorf("built-in mechanism %s: %w", name, err)
+		return nil, nil, fmt.Errorf("built-in mechanism %s: %w", name, err)
 	}
-	m, _, err := mechtoml.Read(bytes.NewReader(data), "builtin/"+fileOf(name))
+	m, problems, err := mechtoml.Read(bytes.NewReader(data), "builtin/"+fileOf(name))
 	if err != nil {
-		return nil, fmt.Errorf("built-in mechanism %s: %w", name, err)
+		return nil, problems, fmt.Errorf("built-in mechanism %s: %w", name, err)
 	}
-	return m, nil
+	return m, problems, nil
 }
 
 func unknownName(name string) error {
@@ -87,7 +98,7 @@ func unknownName(name string) error {
 // in the classic keyword-block format is refused with a message saying to
 // convert it with "flame1d mech import" first.
 func Load(nameOrPath string) (*chem.Mechanism, error) {
-	if isBuiltin(nameOrPath) {
+	if IsName(nameOrPath) {
 		return Mechanism(nameOrPath)
 	}
 	info, err := os.Stat(nameOrPath)

@@ -12,6 +12,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"flame1d/builtin"
 	"flame1d/chem"
 	"flame1d/chem/keyblock"
 	"flame1d/chem/mechtoml"
@@ -20,16 +21,18 @@ import (
 func newMechCmd() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "mech",
-		Short: "Import and check reaction mechanisms",
-		Long: `Work with reaction mechanisms: convert a published mechanism from the classic
-keyword-block text format (ELEMENTS / SPECIES / THERMO / REACTIONS blocks,
-NASA 7-coefficient thermo records, one transport line per species) into
-flame1d's own TOML mechanism file, and check mechanisms for defects.`,
-		Example: `  flame1d mech import --reactions mech.inp --thermo thermo.dat --transport transport.dat -o my-mech.toml
-  flame1d mech check my-mech.toml
-  flame1d mech check mech.inp --thermo thermo.dat --transport transport.dat`,
+		Short: "List, import and check reaction mechanisms",
+		Long: `Work with reaction mechanisms: list the built-in mechanisms with what they were
+validated for, convert a published mechanism from the classic keyword-block
+text format (ELEMENTS / SPECIES / THERMO / REACTIONS blocks, NASA 7-coefficient
+thermo records, one transport line per species) into flame1d's own TOML
+mechanism file, and check mechanisms for defects.`,
+		Example: `  flame1d mech list
+  flame1d mech import --reactions natgas-kinetics.txt --thermo natgas-thermo.txt --transport natgas-transport.txt -o natgas.toml
+  flame1d mech check natgas.toml
+  flame1d mech check ranzi2012-c1c3`,
 	}
-	cmd.AddCommand(newMechImportCmd(), newMechCheckCmd())
+	cmd.AddCommand(newMechListCmd(), newMechImportCmd(), newMechCheckCmd())
 	return cmd
 }
 
@@ -60,8 +63,8 @@ error; warnings are listed and the file is written.
 The mechanism's description (kept in the TOML header) is the comment block at
 the top of the reactions file, or the text of --description-file. Put the
 citation of the mechanism there: published mechanisms ask to be cited.`,
-		Example: `  flame1d mech import --reactions mech.inp --thermo thermo.dat --transport transport.dat -o my-mech.toml
-  flame1d mech import chem.inp --transport tran.dat --name site-b-syngas \
+		Example: `  flame1d mech import --reactions natgas-kinetics.txt --thermo natgas-thermo.txt --transport natgas-transport.txt -o natgas.toml
+  flame1d mech import site-b-syngas.txt --transport site-b-transport.txt --name site-b-syngas \
       --description-file CITATION.txt -o site-b-syngas.toml`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -201,19 +204,22 @@ type mechCheckOptions struct {
 func newMechCheckCmd() *cobra.Command {
 	var o mechCheckOptions
 	cmd := &cobra.Command{
-		Use:   "check FILE...",
+		Use:   "check MECHANISM...",
 		Short: "Summarise mechanisms and list their problems",
-		Long: `Read each FILE and print a summary: elements, species, reactions by rate form
-(elementary, three-body, falloff, chemically activated, pressure table,
+		Long: `Read each MECHANISM and print a summary: elements, species, reactions by rate
+form (elementary, three-body, falloff, chemically activated, pressure table,
 Chebyshev) and by option (duplicates, irreversible, explicit reverse rate,
-explicit orders), then every problem found, with file:line.
+explicit orders), what it was validated for when the file says, then every
+problem found, with file:line.
 
-A FILE ending in .toml is read as a flame1d mechanism file; any other FILE as
-a classic keyword-block reactions file, with --thermo and --transport (which
-then apply to every such FILE). The exit status is non-zero when any FILE has
-an error; warnings alone do not fail the check.`,
-		Example: `  flame1d mech check my-mech.toml
-  flame1d mech check mech.inp --thermo thermo.dat --transport transport.dat
+A MECHANISM is a built-in name (see "flame1d mech list"), a flame1d TOML
+mechanism file (ending in .toml), or a classic keyword-block reactions file,
+read with --thermo and --transport (which then apply to every such file). The
+exit status is non-zero when any MECHANISM has an error; warnings alone do not
+fail the check.`,
+		Example: `  flame1d mech check smith1999-natgas
+  flame1d mech check natgas.toml
+  flame1d mech check natgas-kinetics.txt --thermo natgas-thermo.txt --transport natgas-transport.txt
   flame1d mech check a.toml b.toml --max-problems 0`,
 		Args: cobra.MinimumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -237,10 +243,14 @@ func runMechCheck(w io.Writer, files []string, o mechCheckOptions) error {
 		var probs []chem.Problem
 		var err error
 		var source string
-		if strings.EqualFold(filepath.Ext(file), ".toml") {
+		switch {
+		case builtin.IsName(file):
+			source = "built-in mechanism"
+			m, probs, err = builtin.Read(file)
+		case strings.EqualFold(filepath.Ext(file), ".toml"):
 			source = "flame1d TOML mechanism file"
 			m, probs, err = mechtoml.ReadFile(file)
-		} else {
+		default:
 			source = "classic keyword-block format"
 			if o.thermo != "" {
 				source += "; thermo " + o.thermo
@@ -335,4 +345,55 @@ func writeSummary(w io.Writer, m *chem.Mechanism) {
 	fmt.Fprintf(tw, "    explicit reverse rate\t%d\t\n", s.explicitReverse)
 	fmt.Fprintf(tw, "    explicit orders\t%d\t\n", s.withOrder)
 	tw.Flush()
+	if m.Validity != nil {
+		fmt.Fprintf(w, "  validated for: %s\n", m.Validity.Summary())
+	}
+}
+
+// mechListOptions are the flags of `flame1d mech list`.
+type mechListOptions struct{ json bool }
+
+func newMechListCmd() *cobra.Command {
+	var o mechListOptions
+	cmd := &cobra.Command{
+		Use:   "list",
+		Short: "List the built-in mechanisms: size, citation, what they were validated for",
+		Long: `List the mechanisms built into flame1d, usable by name wherever a mechanism is
+asked for: each with its species and reaction counts, what it is, the
+publication to cite, and the fuels and conditions its authors built and
+validated it for (from the publication; the source of that statement is
+printed with it). A flame outside that range is a model prediction on
+chemistry not tested there.`,
+		Example: `  flame1d mech list
+  flame1d mech list --json`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			return runMechList(cmd.OutOrStdout(), o)
+		},
+	}
+	cmd.Flags().BoolVar(&o.json, "json", false, "write the list as JSON")
+	return cmd
+}
+
+func runMechList(w io.Writer, o mechListOptions) error {
+	entries, err := builtin.Catalogue()
+	if err != nil {
+		return err
+	}
+	if o.json {
+		return writeJSON(w, entries)
+	}
+	for i, e := range entries {
+		if i > 0 {
+			fmt.Fprintln(w)
+		}
+		fmt.Fprintf(w, "%s: %d species, %d reactions\n", e.Name, e.Species, e.Reactions)
+		fmt.Fprintf(w, "  %s\n", e.Title)
+		fmt.Fprintf(w, "  cite: %s\n", e.Citation)
+		fmt.Fprintf(w, "  validated for: %s\n", e.ValidFor)
+		if e.ValiditySource != "" {
+			fmt.Fprintf(w, "  (%s)\n", e.ValiditySource)
+		}
+	}
+	return nil
 }

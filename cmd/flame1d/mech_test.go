@@ -2,8 +2,8 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
-	"flame1d/internal/shareddata"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -11,8 +11,10 @@ import (
 	"strings"
 	"testing"
 
+	"flame1d/builtin"
 	"flame1d/chem/keyblock"
 	"flame1d/chem/mechtoml"
+	"flame1d/internal/shareddata"
 )
 
 // sharedMechanisms is shareddata.MechanismsDir.
@@ -68,7 +70,7 @@ func TestMechCheckBroken(t *testing.T) {
 	}
 	for _, want := range []string{
 		path + ":6: error: truncated thermo record \"H\"",
-		path + ":10: error: unknown species 'OH2' in reaction 'H+O<=>OH2'",
+		path + ":10: error: products: unknown species \"OH2\" in reaction 'H+O<=>OH2'",
 		path + ":3: error: species 'O' has no thermo record (searched the THERMO block of " + path + ")",
 	} {
 		if !strings.Contains(out.String(), want) {
@@ -130,7 +132,7 @@ func TestMechImportRefusesErrors(t *testing.T) {
 	}
 	var stdout, stderr bytes.Buffer
 	err := runMechImport(&stdout, &stderr, mechImportOptions{reactions: in, output: out})
-	if err == nil || !strings.Contains(stderr.String(), in+":10: error: unknown species 'OH2'") {
+	if err == nil || !strings.Contains(stderr.String(), in+":10: error: products: unknown species \"OH2\"") {
 		t.Fatalf("err %v stderr %s", err, stderr.String())
 	}
 	if _, err := os.Stat(out); !errors.Is(err, os.ErrNotExist) {
@@ -167,9 +169,11 @@ func TestMechBinary(t *testing.T) {
 		{"import GRI-Mech 3.0", []string{"mech", "import", "-r", filepath.Join(d, "gri30", "mech.inp"), "--thermo", filepath.Join(d, "gri30", "thermo.dat"),
 			"--transport", filepath.Join(d, "gri30", "transport.dat"), "-o", toml}, 0, "53 species, 325 reactions"},
 		{"check the TOML file", []string{"mech", "check", toml}, 0, "problems: 0 error(s), 0 warning(s)"},
-		{"check a broken file", []string{"mech", "check", broken}, 1, "unknown species 'OH2'"},
+		{"check a broken file", []string{"mech", "check", broken}, 1, `unknown species "OH2"`},
 		{"import a broken file", []string{"mech", "import", broken, "-o", filepath.Join(dir, "x.toml")}, 1, "import of " + broken + " failed"},
 		{"help has examples", []string{"mech", "check", "--help"}, 0, "Examples:"},
+		{"check a built-in by name", []string{"mech", "check", "smith1999-natgas"}, 0, "problems: 0 error(s), 0 warning(s)"},
+		{"list the built-ins", []string{"mech", "list"}, 0, "ranzi2012-c1c3: 114 species, 1999 reactions"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -188,5 +192,46 @@ func TestMechBinary(t *testing.T) {
 				t.Errorf("exit %d (want %d), output lacks %q:\n%s", code, tc.exitCode, tc.want, buf.String())
 			}
 		})
+	}
+}
+
+// TestMechListAndCheckBuiltin: "mech list" shows every built-in with its
+// size and validity, as text and JSON; "mech check NAME" reads a built-in
+// by name (it once failed with "open ...: no such file").
+func TestMechListAndCheckBuiltin(t *testing.T) {
+	var out bytes.Buffer
+	if err := runMechList(&out, mechListOptions{}); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{
+		"smith1999-natgas: 53 species, 325 reactions", "ranzi2012-c1c3: 114 species, 1999 reactions",
+		"validated for: fuels CH4, C2H6;", "cite: E. Ranzi", "quoted from memory",
+	} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("mech list lacks %q:\n%s", want, out.String())
+		}
+	}
+	out.Reset()
+	if err := runMechList(&out, mechListOptions{json: true}); err != nil {
+		t.Fatal(err)
+	}
+	var entries []map[string]any
+	if err := json.Unmarshal(out.Bytes(), &entries); err != nil {
+		t.Fatalf("mech list --json: %v\n%s", err, out.String())
+	}
+	if len(entries) != len(builtin.Names()) || entries[0]["name"] != "burke2012-hydrogen" || entries[0]["species"] != 13.0 {
+		t.Errorf("mech list --json = %v", entries)
+	}
+	out.Reset()
+	if err := runMechCheck(&out, []string{"burke2012-hydrogen"}, mechCheckOptions{maxProblems: 50}); err != nil {
+		t.Fatalf("%v\n%s", err, out.String())
+	}
+	for _, re := range []*regexp.Regexp{
+		regexp.MustCompile(`(?m)^burke2012-hydrogen \(built-in mechanism\)$`), countLine("reactions", "27"),
+		regexp.MustCompile(`validated for: fuels H2; pressure 0.3-87 atm`),
+	} {
+		if !re.MatchString(out.String()) {
+			t.Errorf("mech check output lacks %v:\n%s", re, out.String())
+		}
 	}
 }
