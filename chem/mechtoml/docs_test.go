@@ -41,6 +41,13 @@ func TestDocsExample(t *testing.T) {
 	if len(m.Reactions) != 3 || m.Name != "h2-fragment" || !strings.Contains(m.Description, "GRI-Mech 3.0") {
 		t.Fatalf("read %d reactions, name %q", len(m.Reactions), m.Name)
 	}
+	if v := m.Validity; v == nil || len(v.Fuels) != 1 || v.Fuels[0] != "H2" || v.Temperature != [2]float64{290, 450} ||
+		v.Pressure != [2]float64{0.5 * 101325, 5 * 101325} || v.EquivalenceRatio != [2]float64{0.5, 2} {
+		t.Errorf("validity read as %+v", v)
+	}
+	if f := m.Reactions[0].UncertaintyFactor; f != 1.5 {
+		t.Errorf("uncertainty factor %v, want 1.5", f)
+	}
 	// 2.65e16 cm^3/(mol s) = 2.65e10 m^3/(mol s); 17041 cal/mol * 4.184 J/cal.
 	if r := m.Reactions[0].Rate; !close(r.A, 2.65e10, 1e-15) || !close(r.E, 71299.544, 1e-12) {
 		t.Errorf("first rate %+v", r)
