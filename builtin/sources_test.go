@@ -38,8 +38,12 @@ type source struct {
 	validity chem.Validity
 }
 
-// atm is one standard atmosphere in Pa.
-const atm = thermo.OneAtmosphere
+// atm is one standard atmosphere and torr 1/760 of it, in Pa, computed as
+// the mechanism reader converts "10 Torr".
+const (
+	atm  = thermo.OneAtmosphere
+	torr = atm / 760
+)
 
 // sources are the sets the data README clears for shipping. The text is
 // taken from each folder's PROVENANCE.md.
@@ -55,7 +59,7 @@ var sources = []source{
 		},
 		validity: chem.Validity{
 			Fuels:            []string{"CH4", "C2H6"},
-			Pressure:         [2]float64{10 * atm / 760, 10 * atm},
+			Pressure:         [2]float64{10 * torr, 10 * atm},
 			EquivalenceRatio: [2]float64{0.1, 5},
 			Source: "GRI-Mech 3.0 release notes (Smith et al. 1999), quoted from memory: optimized for natural-gas combustion " +
 				"(methane, with ethane as its minor component) including NO formation and reburn, for roughly 1000-2500 K, " +

@@ -75,7 +75,7 @@ func TestWrittenUnits(t *testing.T) {
 		`[reaction.chebyshev]`,
 		"[8.684, 0.8, -0.1]", // log10 k in cm^3/mol/s, as an importer converted it
 		"rate_constant_unit = \"m^3/mol/s\"\ncoefficients = [\n  [2.684],", // SI-born log10 k, kept in SI
-		`pressure_range = ["1000 Pa", "1e+07 Pa"]`,
+		`pressure_range = ["0.01 bar", "100 bar"]`,                         // no brief exact atm form
 		"rate_uncertainty_factor = 1.5\narrhenius",
 		"rate_uncertainty_factor = 3.16\n",
 		"[validity]\nfuels = [\"CH4\", \"H2\"]\nunburned_temperature_range_K = [300, 700]\npressure_range = [0.1, \"12345.678 Pa\"]\nequivalence_ratio_range = [0.5, 0]\n",

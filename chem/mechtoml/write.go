@@ -136,8 +136,23 @@ func (w *writer) energy(v float64) string {
 	return w.converted(v, v/writeUnits.energyJ, func(q float64) float64 { return scaleBy(q, writeUnits.energyJ) }, "J/mol")
 }
 
+// pressure writes a pressure as a plain number in atm, the declared unit,
+// when that is exact and brief; else, when one of them is, as a string in
+// Torr, bar or kPa ("10 Torr"); else as the file-unit number or, failing
+// an exact one, in Pa.
 func (w *writer) pressure(v float64) string {
-	return w.converted(v, v/writeUnits.pressPa, func(q float64) float64 { return scaleBy(q, writeUnits.pressPa) }, "Pa")
+	const brief = 6 // significant digits
+	atmToSI := func(q float64) float64 { return scaleBy(q, writeUnits.pressPa) }
+	if q, ok := inFileUnit(v, v/writeUnits.pressPa, atmToSI); ok && significantDigits(q) <= brief {
+		return formatFloat(q)
+	}
+	for _, unit := range [...]string{"Torr", "bar", "kPa"} {
+		f := pressureUnits[unit]
+		if q, ok := inFileUnit(v, v/f, func(q float64) float64 { return scaleBy(q, f) }); ok && significantDigits(q) <= brief {
+			return quote(formatFloat(q) + " " + unit)
+		}
+	}
+	return w.converted(v, v/writeUnits.pressPa, atmToSI, "Pa")
 }
 
 func (w *writer) preExponential(v, n float64) string {
