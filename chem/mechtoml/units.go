@@ -273,7 +273,8 @@ func (w writtenRateUnit) forOrder(n float64) (rateUnit, bool) {
 
 func approxEqual(a, b float64) bool { return math.Abs(a-b) <= 1e-9*math.Max(1, math.Abs(b)) }
 
-// units are the units of a file's rate data, declared in its [units] table.
+// units are the units of a file's rate data, declared in its [default_units]
+// table.
 type units struct {
 	energy   string  // key of energyUnits
 	energyJ  float64 // J/mol per energy unit
@@ -283,7 +284,7 @@ type units struct {
 	molecule bool
 }
 
-// siUnits are the defaults of a file without a [units] table.
+// siUnits are the units of the SI fallback the writer uses.
 var siUnits = units{energy: "J/mol", energyJ: 1, pressure: "Pa", pressPa: 1}
 
 // writeUnits are the units the writer declares: those of most published
