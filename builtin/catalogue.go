@@ -68,3 +68,38 @@ func stated(r [2]float64) []float64 {
 	}
 	return r[:]
 }
+
+// Covering names the built-ins whose validated fuels include every one of
+// species, in name order: the better choice to suggest when a flame's fuel
+// or pool species lie outside its mechanism's validity. Names are compared
+// without regard to case, since mechanisms spell species differently
+// (NC7H16, nc7h16).
+func Covering(species []string) ([]string, error) {
+	entries, err := Catalogue()
+	if err != nil {
+		return nil, err
+	}
+	var out []string
+	for _, e := range entries {
+		if len(e.Fuels) > 0 && coversAll(e.Fuels, species) {
+			out = append(out, e.Name)
+		}
+	}
+	return out, nil
+}
+
+func coversAll(fuels, species []string) bool {
+	for _, s := range species {
+		found := false
+		for _, f := range fuels {
+			if strings.EqualFold(f, s) {
+				found = true
+				break
+			}
+		}
+		if !found {
+			return false
+		}
+	}
+	return true
+}

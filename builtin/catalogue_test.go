@@ -92,3 +92,27 @@ func BenchmarkCatalogue(b *testing.B) {
 		}
 	}
 }
+
+// TestCovering: the built-in suggested for a set of fuel species is one
+// validated for all of them (validity tables of the built-ins).
+func TestCovering(t *testing.T) {
+	cases := []struct {
+		species []string
+		want    []string
+	}{
+		{[]string{"CH4", "C2H4", "C3H6", "H2"}, []string{"ranzi2012-c1c3"}}, // a cracked pool
+		{[]string{"H2"}, []string{"burke2012-hydrogen", "ranzi2012-c1c3"}},
+		{[]string{"CH4", "C2H6"}, []string{"ranzi2012-c1c3", "smith1999-natgas"}},
+		{[]string{"NC7H16"}, []string{"lu2009-heptane"}}, // case differs from the file's nc7h16
+		{[]string{"C6H6"}, nil},                          // benzene: a product in ranzi2012-c1c3, not a validated fuel
+	}
+	for _, c := range cases {
+		got, err := Covering(c.species)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if strings.Join(got, ",") != strings.Join(c.want, ",") {
+			t.Errorf("Covering(%v) = %v, want %v", c.species, got, c.want)
+		}
+	}
+}
