@@ -104,7 +104,7 @@ func TestCovering(t *testing.T) {
 		{[]string{"H2"}, []string{"burke2012-hydrogen", "ranzi2012-c1c3"}},
 		{[]string{"CH4", "C2H6"}, []string{"ranzi2012-c1c3", "smith1999-natgas"}},
 		{[]string{"NC7H16"}, []string{"lu2009-heptane"}}, // case differs from the file's nc7h16
-		{[]string{"C6H6"}, nil},                          // benzene: a product in ranzi2012-c1c3, not a validated fuel
+		{[]string{"C6H6"}, nil}, // benzene: a product in ranzi2012-c1c3, not a validated fuel
 	}
 	for _, c := range cases {
 		got, err := Covering(c.species)
