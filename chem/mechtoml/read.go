@@ -368,8 +368,6 @@ const (
 	pressure           // [default_units] pressure
 )
 
-var kindNames = [...]string{"a plain number", "a temperature", "an energy", "a pressure"}
-
 // number reads a number of the given kind and returns it in SI units. A
 // TOML integer or float is in the file's unit for that kind; a string
 // "value unit" carries its own unit.
@@ -405,7 +403,7 @@ func (rd *reader) number(v any, path []string, label string, k kind) (float64, b
 	switch k {
 	case dimensionless:
 		if hasUnit {
-			bad("%s takes no unit (%q)", kindNames[k], unit)
+			bad("write a plain number without a unit (%q); where the value has a unit, the key name says which", unit)
 		}
 	case temperature:
 		if hasUnit && unit != "K" {
@@ -621,7 +619,7 @@ func (rd *reader) readTransport(v any, path []string, label string) *chem.Transp
 		}
 	}
 	if v, ok := t["lj_well_depth_K"]; ok {
-		tp.WellDepth, _ = rd.number(v, sub(path, "lj_well_depth_K"), label, dimensionless)
+		tp.WellDepth, _ = rd.number(v, sub(path, "lj_well_depth_K"), label, temperature)
 	}
 	if v, ok := t["rotational_collision_number_298K"]; ok {
 		tp.RotRelaxation, _ = rd.number(v, sub(path, "rotational_collision_number_298K"), label, dimensionless)

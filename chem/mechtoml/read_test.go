@@ -278,6 +278,7 @@ func TestBrokenInput(t *testing.T) {
 		{"no rate", replace("arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}\n", ""), "no rate", `^equation = "2O+M`},
 		{"missing activation energy", replace("arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1, activation_energy = 0}", "arrhenius = {pre_exponential = 1.2e17, temperature_exponent = -1}"), "arrhenius has no activation_energy", "arrhenius = {pre_exponential = 1.2e17"},
 		{"bad structure", replace(`structure = "linear"`, `structure = "bent"`), `structure = "bent"`, `structure = "bent"`},
+		{"unit on a unit-in-key value", replace(`lj_diameter_angstrom = 2.92`, `lj_diameter_angstrom = "2.92 A"`), `lj_diameter_angstrom: write a plain number without a unit ("A")`, "lj_diameter_angstrom = \"2.92 A\""},
 		{"diameter twice", replace(`lj_diameter_angstrom = 2.92`, `lj_diameter_angstrom = 2.92, lj_diameter_m = 2.92e-10`), "not both", "lj_diameter_m"},
 		{"no diameter", replace(`lj_diameter_angstrom = 2.92, `, ``), "no lj_diameter_angstrom (or lj_diameter_m)", "structure = \"linear\""},
 		{"uncertainty below 1", replace("activation_energy = 17041}", "activation_energy = 17041}\nrate_uncertainty_factor = 0.5"), "must be at least 1", "rate_uncertainty_factor = 0.5"},
