@@ -241,3 +241,11 @@ func BenchmarkMechanismGRI30(b *testing.B) {
 		}
 	}
 }
+
+func BenchmarkMechanismCRECK(b *testing.B) {
+	for b.Loop() {
+		if _, err := Mechanism("ranzi2012-c1c3"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -153,17 +153,18 @@ func parseEquationLine(text string, pos chem.Position, sp *speciesIndex, p *prob
 	pr.line = rawArrhenius{v[0], v[1], v[2]}
 	pr.equation = strings.Join(f[:len(f)-3], " ")
 	pr.r.Equation = pr.equation
-	if err := pr.parseEquation(strings.Join(f[:len(f)-3], ""), sp); err != "" {
+	if err := pr.parseEquation(pr.equation, sp); err != "" {
 		p.errorf(pos, "%s in reaction '%s'", err, pr.equation)
 		pr.bad = true
 	}
 	return pr
 }
 
-// parseEquation reads the compacted equation (blanks removed) with the
-// parser shared with flame1d's TOML reader: arrow, colliders and
-// participants. Species are looked up case-insensitively. It returns an
-// error message or "".
+// parseEquation reads the equation (its words joined by single blanks)
+// with the parser shared with flame1d's TOML reader: arrow, colliders and
+// participants. Species are looked up case-insensitively; blanks around
+// '+' are optional, and resolve a split that would otherwise be
+// ambiguous. It returns an error message or "".
 func (pr *pending) parseEquation(eq string, sp *speciesIndex) string {
 	e, err := equation.Parse(eq, func(name string) int {
 		if k, ok := sp.find(name); ok {
@@ -190,7 +191,7 @@ func (pr *pending) parseEquation(eq string, sp *speciesIndex) string {
 // the trailing "(+...)".
 func (pr *pending) speciesName(k int, eq string) string {
 	if i := strings.LastIndex(eq, "(+"); i >= 0 && strings.HasSuffix(eq, ")") {
-		return eq[i+2 : len(eq)-1]
+		return strings.TrimSpace(eq[i+2 : len(eq)-1])
 	}
 	return fmt.Sprintf("species %d", k+1)
 }
