@@ -50,6 +50,8 @@ type SpeciesPeak struct {
 type OxidationZone struct {
 	StartX    float64 `json:"start_m"`
 	EndX      float64 `json:"end_m"`
+	StartT    float64 `json:"start_T_K"`
+	EndT      float64 `json:"end_T_K"`
 	PeakX     float64 `json:"peak_m"`
 	PeakT     float64 `json:"peak_T_K"`
 	PeakValue float64 `json:"peak_heat_release_W_m3"`
@@ -115,6 +117,7 @@ func (p *Profile) Zones(fuelSpecies []string, inletY []float64) (*Zones, error) 
 	for j := peakJ; j+1 < n && p.HeatRelease[j+1] >= half; j++ {
 		ox.EndX = p.X[j+1]
 	}
+	ox.StartT, ox.EndT = p.interp(p.T, ox.StartX), p.interp(p.T, ox.EndX)
 	z.Oxidation = ox
 	for _, name := range poolCandidates {
 		k, ok := idx[name]

@@ -44,6 +44,13 @@ func TestZonesOnClosedFormProfile(t *testing.T) {
 	if math.Abs(z.Oxidation.StartX-(0.0105-half)) > 2*h || math.Abs(z.Oxidation.EndX-(0.0105+half)) > 2*h {
 		t.Errorf("oxidation zone %.6g-%.6g m, want %.6g-%.6g", z.Oxidation.StartX, z.Oxidation.EndX, 0.0105-half, 0.0105+half)
 	}
+	// The oxidation window's temperatures are the profile's at its ends:
+	// T = 300 + 1700 (1 - f(x)).
+	for _, c := range []struct{ x, T float64 }{{z.Oxidation.StartX, z.Oxidation.StartT}, {z.Oxidation.EndX, z.Oxidation.EndT}} {
+		if want := 300 + 1700*(1-1/(1+math.Exp((c.x-x0)/d))); math.Abs(c.T-want) > 1e-9 {
+			t.Errorf("oxidation window T %.6g K at %.6g m, want %.6g", c.T, c.x, want)
+		}
+	}
 	if math.Abs(z.RadicalPeaks[0].X-0.011) > h {
 		t.Errorf("OH peak at %.6g m, want 0.011", z.RadicalPeaks[0].X)
 	}

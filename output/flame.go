@@ -66,6 +66,25 @@ func (s *FlameSummary) WriteJSON(w io.Writer) error {
 	return enc.Encode(s)
 }
 
+// FuelName is the fuel's name; where the case gave mole fractions inline
+// (they have no name of their own), the species of a single-species fuel or
+// the composition of a mixture.
+func (s *FlameSummary) FuelName() string {
+	if !s.inlineFuel() {
+		return s.Fuel
+	}
+	if len(s.FuelComposition) == 1 {
+		for name := range s.FuelComposition {
+			return name
+		}
+	}
+	return formatComposition(s.FuelComposition)
+}
+
+func (s *FlameSummary) inlineFuel() bool {
+	return s.Fuel == "" || s.Fuel == casefile.InlineFuelName
+}
+
 // WriteText writes the short human summary.
 func (s *FlameSummary) WriteText(w io.Writer) error {
 	if err := s.Check(); err != nil {
@@ -76,7 +95,7 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 		fmt.Fprintf(&b, "%s\n", s.Title)
 	}
 	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
-	if s.Fuel == "" || s.Fuel == casefile.InlineFuelName { // inline mole fractions have no name of their own
+	if s.inlineFuel() {
 		fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.FuelComposition))
 	} else {
 		fmt.Fprintf(&b, "  fuel                    %s: %s\n", s.Fuel, formatComposition(s.FuelComposition))
@@ -99,8 +118,8 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 				pz.Species, 1e3*pz.StartX, 1e3*pz.EndX, pz.StartT, pz.EndT, 1e3*pz.ResidenceTime)
 		}
 		ox := z.Oxidation
-		fmt.Fprintf(&b, "  oxidation zone          %.4g-%.4g mm, heat-release peak at %.4g mm (%.0f K)\n",
-			1e3*ox.StartX, 1e3*ox.EndX, 1e3*ox.PeakX, ox.PeakT)
+		fmt.Fprintf(&b, "  oxidation zone          %.4g-%.4g mm (%.0f-%.0f K), heat-release peak at %.4g mm (%.0f K)\n",
+			1e3*ox.StartX, 1e3*ox.EndX, ox.StartT, ox.EndT, 1e3*ox.PeakX, ox.PeakT)
 		for _, pk := range z.PoolPeaks {
 			fmt.Fprintf(&b, "  pool peak %-13s %.3g at %.4g mm (%.0f K)\n", pk.Species, pk.MoleFraction, 1e3*pk.X, pk.T)
 		}
@@ -162,7 +181,7 @@ func WriteZonesCSV(w io.Writer, z *flame.Zones, comments []string) error {
 		rows = append(rows, []string{"pyrolysis", p.Species, f(p.StartX), f(p.EndX), "", f(p.StartT), f(p.EndT), "", "", f(p.ResidenceTime)})
 	}
 	o := z.Oxidation
-	rows = append(rows, []string{"oxidation", "", f(o.StartX), f(o.EndX), f(o.PeakX), "", "", f(o.PeakT), f(o.PeakValue), ""})
+	rows = append(rows, []string{"oxidation", "", f(o.StartX), f(o.EndX), f(o.PeakX), f(o.StartT), f(o.EndT), f(o.PeakT), f(o.PeakValue), ""})
 	for _, p := range z.PoolPeaks {
 		rows = append(rows, []string{"pool_peak", p.Species, "", "", f(p.X), "", "", f(p.T), f(p.MoleFraction), ""})
 	}

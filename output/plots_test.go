@@ -43,9 +43,9 @@ func TestStackedBars(t *testing.T) {
 	if err != nil {
 		t.Fatalf("PNG does not decode: %v", err)
 	}
-	// 400 × 300 points at the PNG default of 96 dpi: 533 × 400 pixels.
-	if r := img.Bounds(); r.Dx() != 533 || r.Dy() != 400 {
-		t.Errorf("PNG is %d × %d pixels, want 533 × 400", r.Dx(), r.Dy())
+	// 400 × 300 points at 150 dpi: 833 × 625 pixels.
+	if r := img.Bounds(); r.Dx() != 833 || r.Dy() != 625 {
+		t.Errorf("PNG is %d × %d pixels, want 833 × 625", r.Dx(), r.Dy())
 	}
 	// No temporary files are left behind.
 	entries, _ := os.ReadDir(dir)

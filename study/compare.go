@@ -2,6 +2,7 @@ package study
 
 import (
 	"fmt"
+	"image/color"
 	"io"
 	"math"
 	"path/filepath"
@@ -144,64 +145,83 @@ func oneLine(err error) string {
 	return s
 }
 
-// WritePlots writes the flame-speed chart (S_L against phi, one line per
-// fuel) and, at the profile equivalence ratio, overlays of temperature and
-// heat release and of the fuel and main pool species, aligned at each
-// flame's heat-release peak. Each chart is written as SVG and PNG.
+// WritePlots writes, each as SVG and PNG:
+//   - flame-speed: S_L against phi, one line per fuel;
+//   - profiles-thermal: temperature and heat-release rate at the profile
+//     equivalence ratio, aligned at each flame's heat-release peak;
+//   - profiles-species: the fuel and main pool species, aligned likewise;
+//   - zone-map: where each fuel cracks and burns, as bars aligned at the
+//     heat-release peak, at the profile equivalence ratio and across phi.
 func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
+	cs := c.Studies[c.Fuels[0]].Case
+	condition := fmt.Sprintf("%.0f K, %.4g atm", cs.Temperature, cs.Pressure/101325)
 	var speed []output.Series
 	for _, name := range c.Fuels {
 		s := output.Series{Name: name}
-		for i, phi := range c.Phis {
+		for _, i := range c.byPhi() {
 			if r := c.Results[name][i]; r != nil {
-				s.X = append(s.X, phi)
+				s.X = append(s.X, c.Phis[i])
 				s.Y = append(s.Y, r.Summary.FlameSpeed)
+			} else if len(s.X) > 0 && (len(s.Breaks) == 0 || s.Breaks[len(s.Breaks)-1] != len(s.X)) {
+				s.Breaks = append(s.Breaks, len(s.X)) // a failed point: no line across it
 			}
 		}
 		if len(s.X) > 0 {
 			speed = append(speed, s)
 		}
 	}
-	chart := output.Chart{Title: "Laminar flame speed", XLabel: "equivalence ratio [-]", YLabel: "S_L [m/s]",
-		Note: "model predictions; confirm against local codes and licensed practice"}
-	for _, ext := range []string{".svg", ".png"} {
-		if err := output.Lines(filepath.Join(dir, "flame-speed"+ext), chart, speed); err != nil {
+	if len(speed) > 0 {
+		chart := output.Chart{Title: "Laminar flame speed", Note: cs.Title + ": " + condition,
+			XLabel: "equivalence ratio φ [-]", YLabel: "S_L [m/s]", YFromZero: true}
+		if err := writeBoth(dir, "flame-speed", func(path string) error { return output.Lines(path, chart, speed) }); err != nil {
 			return err
 		}
 	}
-	ip := -1
-	for i, phi := range c.Phis {
-		if ip < 0 || math.Abs(phi-profilePhi) < math.Abs(c.Phis[ip]-profilePhi) {
-			ip = i
+	ip := c.nearestPhi(profilePhi)
+	var temperature, heat, species []output.Series
+	var speciesOrder []string
+	speciesColor := func(sp string) color.Color {
+		for i, s := range speciesOrder {
+			if s == sp {
+				return output.SeriesColor(i)
+			}
+		}
+		speciesOrder = append(speciesOrder, sp)
+		return output.SeriesColor(len(speciesOrder) - 1)
+	}
+	peakHeat := 0.0
+	for _, name := range c.Fuels {
+		if r := c.Results[name][ip]; r != nil {
+			peakHeat = math.Max(peakHeat, r.Summary.Zones.Oxidation.PeakValue)
 		}
 	}
-	var thermal, species []output.Series
-	for _, name := range c.Fuels {
+	scale, prefix := output.SIPrefix(peakHeat)
+	for f, name := range c.Fuels {
 		r := c.Results[name][ip]
 		if r == nil {
 			continue
 		}
 		p := r.Profile
 		x0 := r.Summary.Zones.Oxidation.PeakX
-		peak := r.Summary.Zones.Oxidation.PeakValue
-		// Window: from 6 thermal thicknesses upstream of the peak to 10
-		// downstream, where the structure is; the long post-flame zone
-		// would squeeze it into a line.
+		// Window: 4 thermal thicknesses either side of the peak, where the
+		// structure is; the long post-flame zone would squeeze it into a
+		// line.
 		var win []int
 		var xs []float64
 		for j := range p.X {
-			if d := p.X[j] - x0; d >= -6*p.ThermalThick && d <= 10*p.ThermalThick {
+			if d := p.X[j] - x0; d >= -4*p.ThermalThick && d <= 4*p.ThermalThick {
 				win = append(win, j)
 				xs = append(xs, 1e3*d)
 			}
 		}
-		T := output.Series{Name: name + " T/1000 K", X: xs}
-		Q := output.Series{Name: name + " heat release/peak", X: xs}
+		clr := output.SeriesColor(f)
+		T := output.Series{Name: name, X: xs, Color: clr}
+		Q := output.Series{Name: name, X: xs, Color: clr}
 		for _, j := range win {
-			T.Y = append(T.Y, p.T[j]/1000)
-			Q.Y = append(Q.Y, p.HeatRelease[j]/peak)
+			T.Y = append(T.Y, p.T[j])
+			Q.Y = append(Q.Y, scale*p.HeatRelease[j])
 		}
-		thermal = append(thermal, T, Q)
+		temperature, heat = append(temperature, T), append(heat, Q)
 		names := append(c.Studies[name].FuelSpecies(), poolNames(r)...)
 		for _, sp := range names {
 			k := -1
@@ -213,29 +233,92 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			if k < 0 {
 				continue
 			}
-			s := output.Series{Name: name + " " + sp, X: xs}
+			// Colour marks the species, the line pattern the fuel.
+			s := output.Series{Name: name + " " + sp, X: xs, Color: speciesColor(sp), Dash: f}
 			for _, j := range win {
 				s.Y = append(s.Y, p.MoleFractions[j][k])
 			}
 			species = append(species, s)
 		}
 	}
-	label := fmt.Sprintf("distance from heat-release peak [mm] (phi = %g)", c.Phis[ip])
-	for _, ext := range []string{".svg", ".png"} {
-		if len(thermal) > 0 {
-			if err := output.Lines(filepath.Join(dir, "profiles-thermal"+ext),
-				output.Chart{Title: "Temperature and heat release", XLabel: label, YLabel: "[-]"}, thermal); err != nil {
-				return err
-			}
+	note := fmt.Sprintf("%s: φ = %g, %s", cs.Title, c.Phis[ip], condition)
+	label := "distance from the heat-release peak [mm]"
+	if len(temperature) > 0 {
+		chart := output.Chart{Title: "Temperature and heat release", Note: note, XLabel: label}
+		panels := []output.Panel{
+			{YLabel: "T [K]", Series: temperature},
+			{YLabel: "heat release [" + prefix + "W/m³]", Series: heat, YFromZero: true},
 		}
-		if len(species) > 0 {
-			if err := output.Lines(filepath.Join(dir, "profiles-species"+ext),
-				output.Chart{Title: "Fuel and pool species", XLabel: label, YLabel: "mole fraction [-]"}, species); err != nil {
-				return err
+		if err := writeBoth(dir, "profiles-thermal", func(path string) error { return output.StackedPanels(path, chart, panels) }); err != nil {
+			return err
+		}
+	}
+	if len(species) > 0 {
+		chart := output.Chart{Title: "Fuel and pool species", Note: note, XLabel: label, YLabel: "mole fraction [-]", YFromZero: true}
+		if err := writeBoth(dir, "profiles-species", func(path string) error { return output.Lines(path, chart, species) }); err != nil {
+			return err
+		}
+	}
+	return c.writeZoneMap(dir, ip, cs.Title+": "+condition)
+}
+
+// writeZoneMap draws the zone map: the fuels at the profile equivalence
+// ratio (index ip) and, where there are several, every fuel across phi.
+func (c *Comparison) writeZoneMap(dir string, ip int, note string) error {
+	atProfile := output.ZonePanel{Title: fmt.Sprintf("φ = %g", c.Phis[ip])}
+	across := output.ZonePanel{Title: "across φ"}
+	for _, name := range c.Fuels {
+		if r := c.Results[name][ip]; r != nil {
+			atProfile.Flames = append(atProfile.Flames, output.ZoneSet{Label: name, Zones: r.Summary.Zones})
+		}
+		for _, i := range c.byPhi() {
+			if r := c.Results[name][i]; r != nil && len(c.Phis) > 1 {
+				across.Flames = append(across.Flames, output.ZoneSet{Label: fmt.Sprintf("%s, φ %g", name, c.Phis[i]), Zones: r.Summary.Zones})
 			}
 		}
 	}
+	var panels []output.ZonePanel
+	for _, p := range []output.ZonePanel{atProfile, across} {
+		if len(p.Flames) > 0 {
+			panels = append(panels, p)
+		}
+	}
+	if len(panels) == 0 {
+		return nil
+	}
+	chart := output.Chart{Title: "Where each fuel cracks and burns", Note: note}
+	return writeBoth(dir, "zone-map", func(path string) error { return output.ZoneMap(path, chart, panels) })
+}
+
+// writeBoth writes a chart as base.svg and base.png in dir.
+func writeBoth(dir, base string, write func(path string) error) error {
+	for _, ext := range []string{".svg", ".png"} {
+		if err := write(filepath.Join(dir, base+ext)); err != nil {
+			return err
+		}
+	}
 	return nil
+}
+
+// byPhi lists the indices of the equivalence ratios in ascending order.
+func (c *Comparison) byPhi() []int {
+	idx := make([]int, len(c.Phis))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return c.Phis[idx[a]] < c.Phis[idx[b]] })
+	return idx
+}
+
+// nearestPhi is the index of the equivalence ratio nearest phi.
+func (c *Comparison) nearestPhi(phi float64) int {
+	ip := 0
+	for i, v := range c.Phis {
+		if math.Abs(v-phi) < math.Abs(c.Phis[ip]-phi) {
+			ip = i
+		}
+	}
+	return ip
 }
 
 // overlayPoolSpecies is how many pool species per fuel the species overlay

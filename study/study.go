@@ -261,8 +261,8 @@ func (s *Study) ReadRestart(path string) (*flame.Solution, error) {
 }
 
 // WriteFlame writes profile.csv, zones.csv, restart.csv (the state to
-// continue from with `flame1d run --restart`), summary.txt and summary.json
-// into dir. Each
+// continue from with `flame1d run --restart`), the flame plot
+// (flame.svg, flame.png), summary.txt and summary.json into dir. Each
 // file is atomic; summary.json is written last, so its presence marks a
 // complete set.
 func WriteFlame(dir string, r *Result) error {
@@ -287,10 +287,28 @@ func WriteFlame(dir string, r *Result) error {
 	if err := output.WriteFileAtomic(filepath.Join(dir, "restart.csv"), r.Solution.WriteRestart); err != nil {
 		return err
 	}
+	if r.Summary.Zones != nil {
+		for _, ext := range []string{".svg", ".png"} {
+			if err := output.FlamePlot(filepath.Join(dir, "flame"+ext), flameChart(r.Summary), r.Profile, r.Summary.Zones); err != nil {
+				return err
+			}
+		}
+	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, "summary.txt"), r.Summary.WriteText); err != nil {
 		return err
 	}
 	return output.WriteFileAtomic(filepath.Join(dir, "summary.json"), r.Summary.WriteJSON)
+}
+
+// flameChart titles a flame plot with the case title and a line naming the
+// fuel, the condition and the flame speed.
+func flameChart(s *output.FlameSummary) output.Chart {
+	title := s.Title
+	if title == "" {
+		title = "Flame structure"
+	}
+	return output.Chart{Title: title, Note: fmt.Sprintf("%s, φ = %.3g, %.0f K, %.4g atm: S_L = %.3g m/s",
+		s.FuelName(), s.EquivalenceRatio, s.UnburnedTemperatureK, s.PressurePa/101325, s.FlameSpeed)}
 }
 
 // inletFuel lists the fuel-side species of the inlet by mole fraction
