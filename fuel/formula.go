@@ -157,6 +157,13 @@ func (f Formula) element(sym string) float64 {
 // poolElements are the elements a cracked pool may hold.
 var poolElements = []string{"C", "H", "O"}
 
+// FormulaOf is the C, H and O content of a species' elemental composition;
+// other elements (N of a diluent, noble gases) are left out.
+func FormulaOf(comp map[string]float64) Formula {
+	c, h, o, _ := speciesAtoms(comp)
+	return Formula{C: c, H: h, O: o}
+}
+
 // speciesAtoms returns the atoms of C, H and O in a species, and whether it
 // holds any other element.
 func speciesAtoms(comp map[string]float64) (c, h, o float64, other bool) {

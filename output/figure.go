@@ -55,6 +55,15 @@ type Series struct {
 	Dash int
 }
 
+// Break marks a gap after the series' last point (a failed point lies
+// there): the line will not join it to the next point added. Repeated
+// breaks and a break before the first point are one break or none.
+func (s *Series) Break() {
+	if n := len(s.X); n > 0 && (len(s.Breaks) == 0 || s.Breaks[len(s.Breaks)-1] != n) {
+		s.Breaks = append(s.Breaks, n)
+	}
+}
+
 // dashes are the line patterns of Series.Dash.
 var dashes = [][]vg.Length{nil, {6, 3}, {1.5, 2}, {6, 2, 1.5, 2}}
 
@@ -326,6 +335,8 @@ func buildPanel(pn Panel) (figurePanel, error) {
 	if pn.YFromZero {
 		p.Y.Min = 0
 	}
+	// Headroom, so that the highest points are not drawn on the frame.
+	p.Y.Max += 0.04 * (p.Y.Max - p.Y.Min)
 	return fp, nil
 }
 

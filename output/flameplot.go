@@ -35,6 +35,9 @@ func FlamePlot(path string, c Chart, p *flame.Profile, z *flame.Zones) error {
 			win = append(win, j)
 		}
 	}
+	if len(win) < 2 {
+		return fmt.Errorf("flame plot %s: fewer than two grid points in the flame (%.4g to %.4g m)", path, lo, hi)
+	}
 	column := func(v func(j int) float64, scale float64) ([]float64, []float64) {
 		xs, ys := make([]float64, len(win)), make([]float64, len(win))
 		for i, j := range win {
@@ -65,6 +68,7 @@ func FlamePlot(path string, c Chart, p *flame.Profile, z *flame.Zones) error {
 		return fmt.Errorf("flame plot %s: none of the fuel species is in the profile", path)
 	}
 	zones := ZoneRows("", z, 0)
+	clipRows(zones, 1e3*p.X[win[0]], 1e3*p.X[win[len(win)-1]])
 	panels := []Panel{
 		{YLabel: "zones", Rows: zones, Keys: zoneKeys, Weight: 0.22 * float64(len(zones)+1)},
 		{YLabel: "T [K]", Series: []Series{{Name: "temperature", X: tx, Y: ty, Color: color.Black}}, Bands: bands},
@@ -82,17 +86,44 @@ func FlamePlot(path string, c Chart, p *flame.Profile, z *flame.Zones) error {
 
 // flameWindow is the x range (m) the flame plot shows: from one thermal
 // thickness upstream of the first zone start to two past the last zone
-// end, within the domain.
+// end, within the domain. A zone reaching more than windowReach thermal
+// thicknesses beyond the oxidation zone (the fuel of a rich flame, or H2
+// left by dissociation in the burned gas, falls to 5% only far downstream)
+// is cut there, so that the flame itself is not squeezed into a line.
 func flameWindow(p *flame.Profile, z *flame.Zones) (lo, hi float64) {
-	lo, hi = z.Oxidation.StartX, z.Oxidation.EndX
+	ox := z.Oxidation
+	d := p.ThermalThick
+	if !(d > 0) {
+		d = ox.EndX - ox.StartX
+	}
+	lo, hi = ox.StartX, ox.EndX
 	for _, pz := range z.Pyrolysis {
 		lo, hi = math.Min(lo, pz.StartX), math.Max(hi, pz.EndX)
 	}
-	d := p.ThermalThick
-	if !(d > 0) {
-		d = hi - lo
-	}
+	lo = math.Max(lo, ox.StartX-windowReach*d)
+	hi = math.Min(hi, ox.EndX+windowReach*d)
 	return math.Max(p.X[0], lo-d), math.Min(p.X[len(p.X)-1], hi+2*d)
+}
+
+// windowReach is how far (in thermal thicknesses) beyond the oxidation
+// zone the flame plot follows a pyrolysis zone.
+const windowReach = 5
+
+// clipRows cuts the bars to the window [lo, hi] (mm, the bars' unit) and
+// says on the text where a cut bar really ends.
+func clipRows(rows []BarRow, lo, hi float64) {
+	for i := range rows {
+		r := &rows[i]
+		if r.To > hi {
+			r.Text += fmt.Sprintf(", to %.3g mm", r.To)
+			r.To = hi
+		}
+		if r.From < lo {
+			r.Text += fmt.Sprintf(", from %.3g mm", r.From)
+			r.From = lo
+		}
+		r.From, r.To = math.Min(r.From, hi), math.Max(r.To, lo)
+	}
 }
 
 // plottedSpecies are the fuel species (consumed or not) and the pool species

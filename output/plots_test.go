@@ -101,3 +101,30 @@ func TestLines(t *testing.T) {
 }
 
 func nan() float64 { var z float64; return z / z }
+
+// A failed point breaks the line once, however many failures follow; a
+// failure before the first solved point breaks nothing.
+func TestSeriesBreak(t *testing.T) {
+	var s Series
+	s.Break()
+	for _, p := range []struct {
+		x      float64
+		solved bool
+	}{{0.6, true}, {0.7, true}, {0.8, false}, {0.9, false}, {1.0, true}, {1.1, false}, {1.2, true}} {
+		if !p.solved {
+			s.Break()
+			continue
+		}
+		s.X, s.Y = append(s.X, p.x), append(s.Y, 1)
+	}
+	if want := []int{2, 3}; len(s.Breaks) != 2 || s.Breaks[0] != want[0] || s.Breaks[1] != want[1] {
+		t.Errorf("breaks %v, want %v", s.Breaks, want)
+	}
+	path := filepath.Join(plotDir(t), "lines-gap.png")
+	s.Name = "T_u = 298 K"
+	c := Chart{Title: "Laminar flame speed against equivalence ratio", XLabel: "equivalence ratio [-]", YLabel: "S_L [m/s]", YFromZero: true}
+	if err := Lines(path, c, []Series{s, {Name: "T_u = 400 K", X: []float64{0.6, 0.8, 1.0, 1.2}, Y: []float64{0.3, 0.6, 0.7, 0.6}}}); err != nil {
+		t.Fatal(err)
+	}
+	decodePNG(t, path)
+}

@@ -27,6 +27,10 @@ var zoneKeys = []BarKey{
 type ZoneSet struct {
 	Label string
 	Zones *flame.Zones
+	// ThermalThickness (m), when positive, cuts bars that reach more than
+	// windowReach thicknesses beyond the oxidation zone, with the true end
+	// written on the bar, so one long zone does not squeeze the others.
+	ThermalThickness float64
 }
 
 // ZonePanel is one panel of a zone map: a y-axis title (e.g. "φ = 1") and
@@ -51,7 +55,12 @@ func ZoneMap(path string, c Chart, panels []ZonePanel) error {
 			if f.Zones == nil {
 				return fmt.Errorf("zone map %s: %s has no zone diagnostics", path, f.Label)
 			}
-			pn.Rows = append(pn.Rows, ZoneRows(f.Label, f.Zones, f.Zones.Oxidation.PeakX)...)
+			ox := f.Zones.Oxidation
+			rows := ZoneRows(f.Label, f.Zones, ox.PeakX)
+			if d := f.ThermalThickness; d > 0 {
+				clipRows(rows, 1e3*(ox.StartX-ox.PeakX-windowReach*d), 1e3*(ox.EndX-ox.PeakX+windowReach*d))
+			}
+			pn.Rows = append(pn.Rows, rows...)
 		}
 		if len(pn.Rows) == 0 {
 			continue

@@ -162,8 +162,8 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			if r := c.Results[name][i]; r != nil {
 				s.X = append(s.X, c.Phis[i])
 				s.Y = append(s.Y, r.Summary.FlameSpeed)
-			} else if len(s.X) > 0 && (len(s.Breaks) == 0 || s.Breaks[len(s.Breaks)-1] != len(s.X)) {
-				s.Breaks = append(s.Breaks, len(s.X)) // a failed point: no line across it
+			} else {
+				s.Break() // a failed point: no line across it
 			}
 		}
 		if len(s.X) > 0 {
@@ -269,11 +269,12 @@ func (c *Comparison) writeZoneMap(dir string, ip int, note string) error {
 	across := output.ZonePanel{Title: "across φ"}
 	for _, name := range c.Fuels {
 		if r := c.Results[name][ip]; r != nil {
-			atProfile.Flames = append(atProfile.Flames, output.ZoneSet{Label: name, Zones: r.Summary.Zones})
+			atProfile.Flames = append(atProfile.Flames, output.ZoneSet{Label: name, Zones: r.Summary.Zones, ThermalThickness: r.Profile.ThermalThick})
 		}
 		for _, i := range c.byPhi() {
 			if r := c.Results[name][i]; r != nil && len(c.Phis) > 1 {
-				across.Flames = append(across.Flames, output.ZoneSet{Label: fmt.Sprintf("%s, φ %g", name, c.Phis[i]), Zones: r.Summary.Zones})
+				across.Flames = append(across.Flames, output.ZoneSet{Label: fmt.Sprintf("%s, φ %g", name, c.Phis[i]), Zones: r.Summary.Zones,
+					ThermalThickness: r.Profile.ThermalThick})
 			}
 		}
 	}

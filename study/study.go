@@ -170,14 +170,19 @@ func (s *Study) Inlet(c Condition) (flame.Inlet, *fuel.Inlet, error) {
 }
 
 // FuelSpecies names the species whose consumption marks the pyrolysis zone:
-// the neat fuel's or surrogate's components, the pseudo-fuel of a
+// the neat fuel's or surrogate's burnable components (oxygen demand
+// C + H/4 - O/2 > 0), the pseudo-fuel of a
 // finite-rate pool, or the hydrocarbons of a pre-cracked pool.
 func (s *Study) FuelSpecies() []string {
 	var names []string
 	switch {
 	case s.Fuel.Kind == fuel.Neat:
+		// Only species that burn: a diluent (N2, CO2, H2O) is never
+		// consumed and marks no pyrolysis zone.
 		for n := range s.Fuel.Composition {
-			names = append(names, n)
+			if k := s.Mechanism.SpeciesIndex(n); k < 0 || fuel.FormulaOf(s.Mechanism.Species[k].Composition).OxygenDemand() > 0 {
+				names = append(names, n)
+			}
 		}
 	case s.Fuel.Mode == fuel.ModeFiniteRate:
 		names = append(names, s.Fuel.Pool.Pseudo.Name)

@@ -2,14 +2,10 @@ package sweep
 
 import (
 	"fmt"
-	"io"
 	"path/filepath"
 	"sort"
 	"strings"
 
-	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/vg"
 
 	"flame1d/output"
@@ -24,118 +20,80 @@ func PlotName(v Variable) string { return "S_L-vs-" + v.Key() }
 var plotFormats = []string{"svg", "png"}
 
 // writePlots draws S_L against every variable that takes more than one
-// value: one line per combination of the other variables. Failed and
-// pending points are left out and break the line, so no value is drawn
-// across a gap. Variables without any solved point get no plot.
+// value: one line per combination of the other variables, a marker on
+// every solved point. Failed and pending points are left out and break the
+// line, so no value is drawn across a gap. Variables without any solved
+// point get no plot.
 func writePlots(dir, title string, plan *Plan, points []int, recs map[int]*Record) error {
 	values := [3][]float64{plan.Definition.EquivalenceRatios, plan.Definition.TemperaturesK, plan.Definition.PressuresPa}
 	for v := EquivalenceRatio; v <= Pressure; v++ {
 		if len(values[v]) < 2 {
 			continue
 		}
-		p, drawn, err := speedPlot(v, title, values, plan, points, recs)
-		if err != nil {
-			return err
-		}
-		if !drawn {
+		series := speedSeries(v, values, plan, points, recs)
+		if len(series) == 0 {
 			continue
 		}
+		chart := output.Chart{Title: "Laminar flame speed against " + strings.ReplaceAll(v.Key(), "_", " "), Note: title,
+			XLabel: plotLabel(v), YLabel: "S_L [m/s]", YFromZero: true, Width: 6 * vg.Inch, Height: 4 * vg.Inch}
 		for _, format := range plotFormats {
-			wt, err := p.WriterTo(6*vg.Inch, 4*vg.Inch, format)
-			if err != nil {
+			if err := output.Lines(filepath.Join(dir, PlotName(v)+"."+format), chart, series); err != nil {
 				return fmt.Errorf("plot of S_L against %s: %w", v.Key(), err)
-			}
-			path := filepath.Join(dir, PlotName(v)+"."+format)
-			if err := output.WriteFileAtomic(path, func(w io.Writer) error {
-				_, err := wt.WriteTo(w)
-				return err
-			}); err != nil {
-				return err
 			}
 		}
 	}
 	return nil
 }
 
-func speedPlot(v Variable, title string, values [3][]float64, plan *Plan, points []int, recs map[int]*Record) (*plot.Plot, bool, error) {
-	type series struct {
-		label string
-		pts   []int // point indices, ascending in v
+// plotValue is a variable's value on the plot axis: pressure in atm (the
+// unit of the group labels), the others as they are.
+func plotValue(v Variable, c study.Condition) float64 {
+	if v == Pressure {
+		return c.P / 101325
 	}
-	groups := map[string]*series{}
+	return v.of(c)
+}
+
+func plotLabel(v Variable) string {
+	if v == Pressure {
+		return "pressure [atm]"
+	}
+	return v.Label()
+}
+
+// speedSeries gives one series per combination of the other variables,
+// ascending in v, broken where a point is not solved.
+func speedSeries(v Variable, values [3][]float64, plan *Plan, points []int, recs map[int]*Record) []output.Series {
+	groups := map[string][]int{}
 	var order []string
 	for _, i := range points {
-		c := plan.Points[i].Condition
-		label := groupLabel(v, c, values)
-		g, ok := groups[label]
-		if !ok {
-			g = &series{label: label}
-			groups[label] = g
+		label := groupLabel(v, plan.Points[i].Condition, values)
+		if _, ok := groups[label]; !ok {
 			order = append(order, label)
 		}
-		g.pts = append(g.pts, i)
+		groups[label] = append(groups[label], i)
 	}
-	p := plot.New()
-	p.Title.Text = "Laminar flame speed against " + strings.ReplaceAll(v.Key(), "_", " ")
-	if title != "" {
-		p.Title.Text = title + "\n" + p.Title.Text
-	}
-	p.X.Label.Text = v.Label()
-	p.Y.Label.Text = "S_L [m/s]"
-	p.Y.Min = 0
-	p.Add(plotter.NewGrid())
-	drawn := false
-	for k, label := range order {
-		g := groups[label]
-		sort.Slice(g.pts, func(a, b int) bool {
-			return v.of(plan.Points[g.pts[a]].Condition) < v.of(plan.Points[g.pts[b]].Condition)
+	var series []output.Series
+	for _, label := range order {
+		pts := groups[label]
+		sort.Slice(pts, func(a, b int) bool {
+			return v.of(plan.Points[pts[a]].Condition) < v.of(plan.Points[pts[b]].Condition)
 		})
-		var all plotter.XYs
-		var segment plotter.XYs
-		flush := func() error {
-			if len(segment) > 1 {
-				l, err := plotter.NewLine(segment)
-				if err != nil {
-					return err
-				}
-				l.Color = plotutil.Color(k)
-				p.Add(l)
-			}
-			segment = nil
-			return nil
-		}
-		for _, i := range g.pts {
+		s := output.Series{Name: label}
+		for _, i := range pts {
 			r := recs[i]
 			if r == nil || r.Status != Solved {
-				if err := flush(); err != nil {
-					return nil, false, err
-				}
+				s.Break()
 				continue
 			}
-			xy := plotter.XY{X: v.of(plan.Points[i].Condition), Y: r.FlameSpeed}
-			segment = append(segment, xy)
-			all = append(all, xy)
+			s.X = append(s.X, plotValue(v, plan.Points[i].Condition))
+			s.Y = append(s.Y, r.FlameSpeed)
 		}
-		if err := flush(); err != nil {
-			return nil, false, err
+		if len(s.X) > 0 {
+			series = append(series, s)
 		}
-		if len(all) == 0 {
-			continue
-		}
-		s, err := plotter.NewScatter(all)
-		if err != nil {
-			return nil, false, err
-		}
-		s.Color = plotutil.Color(k)
-		s.Shape = plotutil.Shape(k)
-		p.Add(s)
-		if label != "" {
-			p.Legend.Add(label, s)
-		}
-		drawn = true
 	}
-	p.Legend.Top = true
-	return p, drawn, nil
+	return series
 }
 
 // groupLabel names the values of the other swept variables, e.g.

@@ -34,8 +34,11 @@ equivalence ratios, at the case's unburned temperature and pressure, and write:
   profiles-thermal.svg/.png    T and heat release at the profile condition,
                                aligned at each flame's heat-release peak
   profiles-species.svg/.png    fuel and main pool species, aligned likewise
-  <fuel>/                      profile.csv, zones.csv, summary of each fuel
-                               at the profile condition
+  zone-map.svg/.png            where each fuel cracks and burns: pyrolysis and
+                               oxidation zones as bars aligned at the
+                               heat-release peak, with temperature windows
+  <fuel>/                      profile.csv, zones.csv, flame plot, summary of
+                               each fuel at the profile condition
 
 The first fuel is the reference (typically the surrogate used in CFD).
 Failed points are reported in the table with their reason, never as numbers.

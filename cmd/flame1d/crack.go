@@ -82,7 +82,7 @@ func runCrack(w io.Writer, path, dir string) error {
 		return err
 	}
 	cats, series := cs.chartSeries()
-	chart := output.Chart{Title: cs.chartTitle(), YLabel: "share of the fuel's carbon [-]", Note: "model prediction"}
+	chart := output.Chart{Title: cs.chartTitle(), XLabel: "step of the study", YLabel: "share of the fuel's carbon [-]"}
 	for _, ext := range []string{".svg", ".png"} {
 		if err := output.StackedBars(filepath.Join(dir, "crack"+ext), chart, cats, series); err != nil {
 			return err

@@ -38,6 +38,8 @@ folder named after the case file):
   profile.csv    x, T, u, rho, heat-release rate and all mole fractions
   zones.csv      pyrolysis and oxidation zones, pool-species and radical peaks
   restart.csv    the full state, to start another run from (--restart)
+  flame.svg/.png where the fuel cracks and burns: zones, T, heat release,
+                 fuel and largest pool species against position
   summary.json   flame speed, burned and adiabatic temperature, thickness, ...
   summary.txt    the same, for people
 
