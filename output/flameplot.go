@@ -16,7 +16,8 @@ import (
 // panels on a shared position axis [mm] (the profile's own coordinate, as
 // in profile.csv):
 //   - the zones: each fuel species' pyrolysis zone and the oxidation zone
-//     as bars, with their temperature windows;
+//     as bars, with their temperature windows, and the heat-release peak
+//     as a dashed line;
 //   - temperature [K];
 //   - heat-release rate (in W/m³ with an SI prefix);
 //   - mole fractions of the fuel species and of the largest pool species;
@@ -70,7 +71,7 @@ func FlamePlot(path string, c Chart, p *flame.Profile, z *flame.Zones) error {
 	zones := ZoneRows("", z, 0)
 	clipRows(zones, 1e3*p.X[win[0]], 1e3*p.X[win[len(win)-1]])
 	panels := []Panel{
-		{YLabel: "zones", Rows: zones, Keys: zoneKeys, Weight: 0.22 * float64(len(zones)+1)},
+		{YLabel: "zones", Rows: zones, Keys: zoneKeys, Rules: []float64{1e3 * z.Oxidation.PeakX}, Weight: 0.22 * float64(len(zones)+1)},
 		{YLabel: "T [K]", Series: []Series{{Name: "temperature", X: tx, Y: ty, Color: color.Black}}, Bands: bands},
 		{YLabel: "heat release [" + prefix + "W/m³]", Series: []Series{{Name: "heat-release rate", X: qx, Y: qy, Color: OxidationColor}}, Bands: bands, YFromZero: true},
 		{YLabel: "mole fraction [-]", Series: species, Bands: bands, YFromZero: true},

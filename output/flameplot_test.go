@@ -17,7 +17,7 @@ import (
 // Gaussian heat-release peak just downstream, H2 formed and consumed inside
 // the front, on a grid that is fine where the flame is. shift moves the
 // whole flame, for comparing two of them.
-func syntheticFlame(t *testing.T, xf, d, shift float64) (*flame.Profile, *flame.Zones) {
+func syntheticFlame(t testing.TB, xf, d, shift float64) (*flame.Profile, *flame.Zones) {
 	t.Helper()
 	xf += shift
 	p := &flame.Profile{Species: []string{"CH4", "O2", "H2", "OH"}}
@@ -70,13 +70,15 @@ func TestFlamePlot(t *testing.T) {
 		}
 	}
 	decodePNG(t, pngPath)
-	// Same input, same bytes.
-	again := filepath.Join(t.TempDir(), "again.svg")
-	if err := FlamePlot(again, c, p, z); err != nil {
-		t.Fatal(err)
-	}
-	if !bytes.Equal(b, readFile(t, again)) {
-		t.Error("the flame plot SVG differs between two writes of the same flame")
+	// Same input, same bytes, in both formats.
+	for _, path := range []string{svg, pngPath} {
+		again := filepath.Join(t.TempDir(), "again"+filepath.Ext(path))
+		if err := FlamePlot(again, c, p, z); err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(readFile(t, path), readFile(t, again)) {
+			t.Errorf("the flame plot %s differs between two writes of the same flame", filepath.Ext(path))
+		}
 	}
 	if err := FlamePlot(filepath.Join(t.TempDir(), "x.svg"), c, p, nil); err == nil {
 		t.Error("a flame without zone diagnostics was drawn")
@@ -166,5 +168,20 @@ func decodePNG(t *testing.T, path string) {
 	}
 	if !strings.HasSuffix(path, ".png") {
 		t.Errorf("%s: not a .png name", path)
+	}
+}
+
+// BenchmarkFlamePlot draws the flame plot of a 161-point flame in both
+// formats (what every `flame1d run` adds to the solve).
+func BenchmarkFlamePlot(b *testing.B) {
+	p, z := syntheticFlame(b, 0.01, 1e-4, 0)
+	dir := b.TempDir()
+	c := Chart{Title: "bench"}
+	for b.Loop() {
+		for _, ext := range []string{".svg", ".png"} {
+			if err := FlamePlot(filepath.Join(dir, "flame"+ext), c, p, z); err != nil {
+				b.Fatal(err)
+			}
+		}
 	}
 }

@@ -70,6 +70,12 @@ func TestChartsRefuseBadData(t *testing.T) {
 		{"NaN line", func(p string) error {
 			return Lines(p, Chart{}, []Series{{Name: "x", X: []float64{0, 1}, Y: []float64{0, nan()}}})
 		}, "not finite"},
+		{"NaN bar end", func(p string) error {
+			return StackedPanels(p, Chart{}, []Panel{{Rows: []BarRow{{Label: "fuel", From: 0, To: nan()}}}})
+		}, "not finite"},
+		{"empty panel", func(p string) error {
+			return StackedPanels(p, Chart{}, []Panel{{YLabel: "T [K]"}})
+		}, "neither curves nor bars"},
 		{"unknown format", func(p string) error {
 			return Lines(p+".xyz", Chart{}, []Series{{Name: "x", X: []float64{0, 1}, Y: []float64{0, 1}}})
 		}, "chart"},

@@ -27,7 +27,7 @@
 //
 //	sweep.json            manifest: the sweep definition, the shard, the flame1d build
 //	results.csv           one row per condition (see results.go)
-//	points/<id>/          profile.csv, restart.csv, summary.txt, summary.json (study.WriteFlame),
+//	points/<id>/          profile.csv, restart.csv, summary.txt, summary.json (study.WriteFlameTables),
 //	                      point.json (the point's record; written last, it commits the point)
 //	S_L-vs-<variable>.svg/.png   flame speed against each swept variable
 package sweep

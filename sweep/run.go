@@ -502,7 +502,7 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 		rec.Reason = failureReason(rec.Attempts)
 	} else {
 		rec.Status = Solved
-		if err := study.WriteFlame(dir, res); err != nil {
+		if err := study.WriteFlameTables(dir, res); err != nil {
 			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
 		}
 	}
@@ -559,7 +559,7 @@ func newStudySolver(c *casefile.Case, threads func() int) (*studySolver, error) 
 	return &studySolver{st: st, threads: threads}, nil
 }
 
-// restartName is the converged-state file study.WriteFlame writes beside
+// restartName is the converged-state file study.WriteFlameTables writes beside
 // every profile; continuation reads it back, so that a resumed sweep starts
 // each point from exactly the numbers an uninterrupted one does.
 const restartName = "restart.csv"

@@ -86,6 +86,7 @@ func TestRunWritesResults(t *testing.T) {
 	if !strings.Contains(stdout+readFile(t, filepath.Join(dir, "summary.txt")), "model predictions") {
 		t.Error("summary lacks the model-prediction note")
 	}
+	checkFlamePlot(t, dir)
 }
 
 // A mixture that cannot burn exits with an error that says so and writes
