@@ -153,14 +153,8 @@ func StackedPanels(path string, c Chart, panels []Panel) error {
 		xmin, xmax = math.Min(xmin, fp.plot.X.Min), math.Max(xmax, fp.plot.X.Max)
 		fps[i] = fp
 	}
-	for _, pn := range panels {
-		if len(pn.Rows) > 0 {
-			// Bars get air between their ends and the frame.
-			margin := 0.03 * (xmax - xmin)
-			xmin, xmax = xmin-margin, xmax+margin
-			break
-		}
-	}
+	// Air between the outermost points or bar ends and the frame.
+	xmin, xmax = widen(xmin, xmax, 0.03)
 	for _, fp := range fps {
 		fp.plot.X.Min, fp.plot.X.Max = xmin, xmax
 	}
@@ -336,7 +330,11 @@ func buildPanel(pn Panel) (figurePanel, error) {
 		p.Y.Min = 0
 	}
 	// Headroom, so that the highest points are not drawn on the frame.
-	p.Y.Max += 0.04 * (p.Y.Max - p.Y.Min)
+	lo := p.Y.Min
+	p.Y.Min, p.Y.Max = widen(p.Y.Min, p.Y.Max, 0.04)
+	if pn.YFromZero || lo >= 0 && p.Y.Min < 0 {
+		p.Y.Min = lo
+	}
 	return fp, nil
 }
 
@@ -641,6 +639,21 @@ func (g grid) Plot(c draw.Canvas, p *plot.Plot) {
 			c.StrokeLine2(sty, c.Min.X, y, c.Max.X, y)
 		}
 	}
+}
+
+// widen pads the range [lo, hi] by frac of its length on each side; a
+// range of one value (one point, or all equal) becomes that value ± 10%
+// (± 1 for zero).
+func widen(lo, hi, frac float64) (float64, float64) {
+	if hi <= lo {
+		d := 0.1 * math.Abs(lo)
+		if d == 0 {
+			d = 1
+		}
+		return lo - d, hi + d
+	}
+	m := frac * (hi - lo)
+	return lo - m, hi + m
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

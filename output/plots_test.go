@@ -134,3 +134,20 @@ func TestSeriesBreak(t *testing.T) {
 	}
 	decodePNG(t, path)
 }
+
+// A comparison at one equivalence ratio has one point per fuel: the axis
+// spans ±10% around it instead of collapsing (gonum would draw 0 to 1 with
+// the points on the frame).
+func TestOnePointChart(t *testing.T) {
+	path := filepath.Join(plotDir(t), "one-point.svg")
+	c := Chart{Title: "Laminar flame speed", XLabel: "equivalence ratio φ [-]", YLabel: "S_L [m/s]", YFromZero: true}
+	if err := Lines(path, c, []Series{{Name: "A", X: []float64{1}, Y: []float64{0.36}}, {Name: "B", X: []float64{1}, Y: []float64{0.37}}}); err != nil {
+		t.Fatal(err)
+	}
+	if lo, hi := widen(1, 1, 0.03); lo != 0.9 || hi != 1.1 {
+		t.Errorf("one-value range widened to %g..%g, want 0.9..1.1", lo, hi)
+	}
+	if err := Lines(strings.TrimSuffix(path, ".svg")+".png", c, []Series{{Name: "A", X: []float64{1}, Y: []float64{0.36}}}); err != nil {
+		t.Fatal(err)
+	}
+}
