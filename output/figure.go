@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"path/filepath"
+	"strconv"
 	"strings"
 
 	"gonum.org/v1/plot"
@@ -307,6 +308,7 @@ func newFigurePanel(p *plot.Plot, weight float64) figurePanel {
 func buildPanel(pn Panel) (figurePanel, error) {
 	p := plot.New()
 	p.Y.Label.Text = pn.YLabel
+	p.X.Tick.Marker, p.Y.Tick.Marker = niceTicks{}, niceTicks{}
 	fp := newFigurePanel(p, pn.Weight)
 	if len(pn.Rows) > 0 {
 		if err := addBarRows(&fp, pn); err != nil {
@@ -561,6 +563,51 @@ func layoutPanels(dc draw.Canvas, panels []figurePanel, left, right, bottom, top
 		canvases[i].Max.X -= maxR - (canvases[i].Max.X - da.Max.X)
 	}
 	return canvases
+}
+
+// niceTicks marks about five labelled steps of 1, 2 or 5 times a power of
+// ten across the axis, with unlabelled minor ticks between them (the
+// library's default labels only two or three, e.g. 0 and 2.5 on an S_L
+// axis up to 2.9 m/s).
+type niceTicks struct{}
+
+func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(hi > lo) || !finite(lo) || !finite(hi) {
+		return nil
+	}
+	// The largest step of 1, 2 or 5 × 10^n that fits 3.5 times.
+	span := hi - lo
+	step, minors := math.Pow(10, math.Ceil(math.Log10(span))), 5
+	for _, f := range []struct {
+		factor float64
+		minors int
+	}{{0.5, 5}, {0.4, 4}, {0.5, 5}, {0.5, 5}, {0.4, 4}, {0.5, 5}} {
+		if span/step >= 3.5*(1-1e-9) {
+			break
+		}
+		step, minors = step*f.factor, f.minors
+	}
+	decimals := max(0, int(-math.Floor(math.Log10(step)+1e-9)))
+	label := func(v float64) string {
+		if math.Abs(v) < step*1e-9 {
+			return "0"
+		}
+		if step < 1e-3 || step >= 1e6 {
+			return strconv.FormatFloat(v, 'g', 3, 64)
+		}
+		return strconv.FormatFloat(v, 'f', decimals, 64)
+	}
+	var ticks []plot.Tick
+	minor := step / float64(minors)
+	for k := math.Ceil(lo/minor - 1e-9); k*minor <= hi+minor*1e-9; k++ {
+		v := k * minor
+		t := plot.Tick{Value: v}
+		if int(math.Round(k))%minors == 0 {
+			t.Label = label(v)
+		}
+		ticks = append(ticks, t)
+	}
+	return ticks
 }
 
 // unlabelledTicks keeps the tick marks of an inner panel of a stack and

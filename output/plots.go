@@ -60,5 +60,6 @@ func StackedBars(path string, c Chart, categories []string, series []Series) err
 	p.X.Tick.Label.XAlign = draw.XRight
 	p.X.Tick.Label.YAlign = draw.YCenter
 	p.Y.Min = 0
+	p.Y.Tick.Marker = niceTicks{}
 	return writeFigure(path, c, []figurePanel{fp}, nil)
 }
