@@ -171,7 +171,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 		}
 	}
 	if len(speed) > 0 {
-		chart := output.Chart{Title: "Laminar flame speed", Note: cs.Title + ": " + condition,
+		chart := output.Chart{Title: "Laminar flame speed", Note: titled(cs.Title, condition),
 			XLabel: "equivalence ratio φ [-]", YLabel: "S_L [m/s]", YFromZero: true}
 		if err := writeBoth(dir, "flame-speed", func(path string) error { return output.Lines(path, chart, speed) }); err != nil {
 			return err
@@ -241,7 +241,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			species = append(species, s)
 		}
 	}
-	note := fmt.Sprintf("%s: φ = %g, %s", cs.Title, c.Phis[ip], condition)
+	note := titled(cs.Title, fmt.Sprintf("φ = %g, %s", c.Phis[ip], condition))
 	label := "distance from the heat-release peak [mm]"
 	if len(temperature) > 0 {
 		chart := output.Chart{Title: "Temperature and heat release", Note: note, XLabel: label}
@@ -259,7 +259,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			return err
 		}
 	}
-	return c.writeZoneMap(dir, ip, cs.Title+": "+condition)
+	return c.writeZoneMap(dir, ip, titled(cs.Title, condition))
 }
 
 // writeZoneMap draws the zone map: the fuels at the profile equivalence
@@ -289,6 +289,14 @@ func (c *Comparison) writeZoneMap(dir string, ip int, note string) error {
 	}
 	chart := output.Chart{Title: "Where each fuel cracks and burns", Note: note}
 	return writeBoth(dir, "zone-map", func(path string) error { return output.ZoneMap(path, chart, panels) })
+}
+
+// titled prefixes a chart note with the case title, when there is one.
+func titled(title, note string) string {
+	if title == "" {
+		return note
+	}
+	return title + ": " + note
 }
 
 // writeBoth writes a chart as base.svg and base.png in dir.
