@@ -87,7 +87,7 @@ type BarRow struct {
 	Color    color.Color
 }
 
-// Legend entry of a bar colour, for bar panels.
+// BarKey is a legend entry of a bar colour, for bar panels.
 type BarKey struct {
 	Name  string
 	Color color.Color
@@ -565,7 +565,7 @@ func layoutPanels(dc draw.Canvas, panels []figurePanel, left, right, bottom, top
 	return canvases
 }
 
-// niceTicks marks about five labelled steps of 1, 2 or 5 times a power of
+// niceTicks marks three to seven labelled steps of 1, 2 or 5 times a power of
 // ten across the axis, with unlabelled minor ticks between them (the
 // library's default labels only two or three, e.g. 0 and 2.5 on an S_L
 // axis up to 2.9 m/s).
@@ -575,14 +575,15 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 	if !(hi > lo) || !finite(lo) || !finite(hi) {
 		return nil
 	}
-	// The largest step of 1, 2 or 5 × 10^n that fits 3.5 times.
+	// The largest step of 1, 2 or 5 × 10^n that fits three times: three to
+	// seven labels.
 	span := hi - lo
 	step, minors := math.Pow(10, math.Ceil(math.Log10(span))), 5
 	for _, f := range []struct {
 		factor float64
 		minors int
 	}{{0.5, 5}, {0.4, 4}, {0.5, 5}, {0.5, 5}, {0.4, 4}, {0.5, 5}} {
-		if span/step >= 3.5*(1-1e-9) {
+		if span/step >= 3*(1-1e-9) {
 			break
 		}
 		step, minors = step*f.factor, f.minors

@@ -152,7 +152,7 @@ func TestOnePointChart(t *testing.T) {
 	}
 }
 
-// Axis ticks: about five labelled steps of 1, 2 or 5 × 10^n, minor ticks
+// Axis ticks: three to seven labelled steps of 1, 2 or 5 × 10^n, minor ticks
 // between them, no "-0" and no round-off in the labels.
 func TestNiceTicks(t *testing.T) {
 	for _, c := range []struct {
@@ -163,7 +163,8 @@ func TestNiceTicks(t *testing.T) {
 		{298, 2230, []string{"500", "1000", "1500", "2000"}},
 		{-0.6, 0.1, []string{"-0.6", "-0.4", "-0.2", "0"}},
 		{0, 9.5e-5, []string{"0", "2e-05", "4e-05", "6e-05", "8e-05"}},
-		{5.2, 6.85, []string{"5.2", "5.4", "5.6", "5.8", "6.0", "6.2", "6.4", "6.6", "6.8"}},
+		{5.2, 6.85, []string{"5.5", "6.0", "6.5"}},
+		{400, 2100, []string{"500", "1000", "1500", "2000"}},
 	} {
 		var got []string
 		for _, tk := range (niceTicks{}).Ticks(c.lo, c.hi) {
