@@ -7,13 +7,10 @@
 package casefile
 
 import (
-	"errors"
 	"fmt"
 	"os"
 	"sort"
 	"strings"
-
-	"github.com/BurntSushi/toml"
 
 	"flame1d/fuel"
 	"flame1d/internal/tomlpos"
@@ -165,19 +162,9 @@ func ReadFile(path string) (*Case, error) {
 // Parse parses and checks case-file text; file names the source in errors.
 func Parse(src []byte, file string) (*Case, error) {
 	var r raw
-	md, err := toml.Decode(string(src), &r)
+	md, err := tomlpos.Decode(src, file, &r)
 	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			// The decoder counts a line break it stumbles on as the start
-			// of the next line; the byte offset names the line it ends.
-			line := pe.Position.Line
-			if st := pe.Position.Start; st > 0 && st <= len(src) {
-				line = 1 + strings.Count(string(src[:st]), "\n")
-			}
-			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, line, pe.Message)
-		}
-		return nil, fmt.Errorf("%s: %w", file, err)
+		return nil, err
 	}
 	if und := md.Undecoded(); len(und) > 0 {
 		k := und[0]

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"flame1d/internal/dense"
 )
 
 // EquilibriumOptions control EquilibrateTP, EquilibrateHP and AdiabaticFlame.
@@ -199,6 +201,7 @@ type equilibrium struct {
 	mat, rhs   []float64
 	mat0, rhs0 []float64 // copies for the truncated retry
 	sym        *symmetricWork
+	lin        dense.Solver
 	// truncated selects the truncated symmetric solve for every Newton
 	// system (see solveSymmetricTruncated).
 	truncated bool
@@ -339,8 +342,8 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 // Gram-Schmidt in declaration order.
 func independentElements(s *SpeciesSet, active []int, b []float64) []int {
 	nAll := len(s.Elements)
-	var basis [][]float64
-	var keep []int
+	var rows [][]float64
+	var present []int
 	for e := 0; e < nAll; e++ {
 		if !(b[e] > 0) {
 			continue
@@ -349,32 +352,15 @@ func independentElements(s *SpeciesSet, active []int, b []float64) []int {
 		for j, k := range active {
 			v[j] = s.atoms[k*nAll+e]
 		}
-		norm0 := math.Sqrt(dot(v, v))
-		for _, u := range basis {
-			d := dot(v, u)
-			for j := range v {
-				v[j] -= d * u[j]
-			}
-		}
-		norm := math.Sqrt(dot(v, v))
-		if norm <= 1e-10*norm0 {
-			continue
-		}
-		for j := range v {
-			v[j] /= norm
-		}
-		basis = append(basis, v)
-		keep = append(keep, e)
+		rows = append(rows, v)
+		present = append(present, e)
+	}
+	_, kept := dense.Orthonormalize(rows, 1e-10)
+	keep := make([]int, len(kept))
+	for i, r := range kept {
+		keep[i] = present[r]
 	}
 	return keep
-}
-
-func dot(a, b []float64) float64 {
-	s := 0.0
-	for i := range a {
-		s += a[i] * b[i]
-	}
-	return s
 }
 
 func (q *equilibrium) updateThermo() {
@@ -503,7 +489,7 @@ func (q *equilibrium) newtonSystem() error {
 		M0, r0 := q.mat0[:m*m], q.rhs0[:m]
 		copy(M0, M)
 		copy(r0, r)
-		if err := solveDense(M, r, m); err != nil {
+		if err := q.lin.Solve(M, r, m, maxCondition); err != nil {
 			if !q.potentialStage {
 				return err
 			}

@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/rand"
 	"testing"
+
+	"flame1d/internal/dense"
 )
 
 func TestLinearSolvers(t *testing.T) {
@@ -43,7 +45,7 @@ func TestLinearSolvers(t *testing.T) {
 			r := append([]float64(nil), b...)
 			var err error
 			if solver == "dense" {
-				err = solveDense(M, r, n)
+				err = dense.Solve(M, r, n, maxCondition)
 			} else {
 				err = solveSymmetricTruncated(M, r, n, newSymmetricWork(n), 1e-12)
 			}
@@ -60,7 +62,7 @@ func TestLinearSolvers(t *testing.T) {
 	// Exactly singular: [[1,1],[1,1]] x = [2,2]. Dense fails; the truncated
 	// solve returns the minimum-norm solution (1, 1).
 	M := []float64{1, 1, 1, 1}
-	if err := solveDense(append([]float64(nil), M...), []float64{2, 2}, 2); err == nil {
+	if err := dense.Solve(append([]float64(nil), M...), []float64{2, 2}, 2, maxCondition); err == nil {
 		t.Error("dense solve of a singular matrix: want error")
 	}
 	r := []float64{2, 2}

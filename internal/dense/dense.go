@@ -1,0 +1,150 @@
+// Package dense holds the small dense linear algebra the physics packages
+// share: the solution of a square system by LU factorisation (gonum/mat)
+// after row equilibration, and Gram-Schmidt orthonormalisation that keeps
+// the linearly independent vectors of a list. The block-tridiagonal
+// factorisation of the flame Jacobian is package newton's own.
+package dense
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// ErrSingular is returned for a system with a zero, non-finite or
+// (relative to the condition limit) vanishing row or pivot.
+var ErrSingular = errors.New("singular linear system")
+
+// Solver solves square systems M x = r of up to a few dozen unknowns. It
+// keeps its factorisation storage between calls; a Solver is used by one
+// goroutine at a time. The zero value is ready to use.
+type Solver struct {
+	lu   mat.LU
+	a    *mat.Dense
+	x, b *mat.VecDense
+	n    int
+}
+
+// Solve solves the n×n system M x = r, M row-major, by LU factorisation
+// with partial pivoting (gonum/mat) after dividing each row by its largest
+// entry. The equilibration keeps pivoting meaningful when rows differ by
+// many orders of magnitude, as the balance rows of trace elements do
+// (Golub & Van Loan, Matrix Computations, 4th ed. 2013, sec. 3.5.2). M is
+// overwritten with its equilibrated rows and r receives x. The system is
+// refused (an error wrapping ErrSingular) when a row is zero or not finite,
+// or the estimated condition number of the equilibrated matrix is not below
+// maxCond: the solution would not be determined by the data.
+func (s *Solver) Solve(M, r []float64, n int, maxCond float64) error {
+	if len(M) < n*n || len(r) < n {
+		return fmt.Errorf("dense: %d×%d system with %d matrix entries and %d right-hand sides", n, n, len(M), len(r))
+	}
+	for i := 0; i < n; i++ {
+		row := M[i*n : (i+1)*n]
+		big := 0.0
+		for _, v := range row {
+			big = math.Max(big, math.Abs(v))
+		}
+		if big == 0 || math.IsNaN(big) || math.IsInf(big, 0) {
+			return fmt.Errorf("row %d is zero or not finite: %w", i, ErrSingular)
+		}
+		inv := 1 / big
+		for j := range row {
+			row[j] *= inv
+		}
+		r[i] *= inv
+	}
+	if s.n != n || s.a == nil {
+		s.n = n
+		s.a = mat.NewDense(n, n, nil)
+		s.x, s.b = mat.NewVecDense(n, nil), mat.NewVecDense(n, nil)
+	}
+	a := s.a.RawMatrix()
+	copy(a.Data[:n*n], M[:n*n])
+	copy(s.b.RawVector().Data, r[:n])
+	s.lu.Factorize(s.a)
+	if c := s.lu.Cond(); !(c < maxCond) {
+		return fmt.Errorf("condition number %.3g: %w", c, ErrSingular)
+	}
+	if err := s.lu.SolveVecTo(s.x, false, s.b); err != nil {
+		return fmt.Errorf("%v: %w", err, ErrSingular)
+	}
+	copy(r[:n], s.x.RawVector().Data)
+	for _, v := range r[:n] {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fmt.Errorf("solution not finite: %w", ErrSingular)
+		}
+	}
+	return nil
+}
+
+// Solve solves the n×n system M x = r with a Solver of its own (see
+// Solver.Solve); for one-off systems.
+func Solve(M, r []float64, n int, maxCond float64) error {
+	var s Solver
+	return s.Solve(M, r, n, maxCond)
+}
+
+// Basis is an orthonormal basis built one vector at a time by modified
+// Gram-Schmidt, each vector orthogonalised twice against the basis so far
+// (Giraud, Langou & Rozložník, Comput. Math. Appl. 50 (2005) 1069: "twice
+// is enough"). The zero value is an empty basis with tolerance 0.
+type Basis struct {
+	// Tol is the relative size of a vector's part orthogonal to the basis
+	// at or below which the vector counts as dependent.
+	Tol float64
+	// Vectors are the orthonormal basis vectors.
+	Vectors [][]float64
+}
+
+// Add adds the normalised part of v orthogonal to the basis when that part
+// is larger than b.Tol times the norm of v, and reports whether it did. A
+// zero or non-finite v is never added; v is not modified.
+func (b *Basis) Add(v []float64) bool {
+	w := append([]float64(nil), v...)
+	n0 := norm(w)
+	if n0 == 0 || math.IsNaN(n0) || math.IsInf(n0, 0) {
+		return false
+	}
+	for pass := 0; pass < 2; pass++ {
+		for _, u := range b.Vectors {
+			d := dot(w, u)
+			for j := range w {
+				w[j] -= d * u[j]
+			}
+		}
+	}
+	nn := norm(w)
+	if nn <= b.Tol*n0 {
+		return false
+	}
+	for j := range w {
+		w[j] /= nn
+	}
+	b.Vectors = append(b.Vectors, w)
+	return true
+}
+
+// Orthonormalize adds the vectors of vs to an empty Basis with tolerance
+// tol, in order, and returns the basis vectors and the indices into vs of
+// the vectors kept.
+func Orthonormalize(vs [][]float64, tol float64) (basis [][]float64, kept []int) {
+	b := Basis{Tol: tol}
+	for i, v := range vs {
+		if b.Add(v) {
+			kept = append(kept, i)
+		}
+	}
+	return b.Vectors, kept
+}
+
+func dot(a, b []float64) float64 {
+	s := 0.0
+	for i := range a {
+		s += a[i] * b[i]
+	}
+	return s
+}
+
+func norm(a []float64) float64 { return math.Sqrt(dot(a, a)) }
