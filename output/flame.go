@@ -9,7 +9,6 @@ import (
 	"sort"
 	"strings"
 
-	"flame1d/casefile"
 	"flame1d/flame"
 )
 
@@ -18,7 +17,7 @@ import (
 type FlameSummary struct {
 	Title                string             `json:"title,omitempty"`
 	Mechanism            string             `json:"mechanism"`
-	Fuel                 string             `json:"fuel"`
+	Fuel                 string             `json:"fuel"` // empty for inline mole fractions
 	FuelComposition      map[string]float64 `json:"fuel_mole_fractions"`
 	Oxidizer             map[string]float64 `json:"oxidizer_mole_fractions"`
 	EquivalenceRatio     float64            `json:"equivalence_ratio"`
@@ -76,7 +75,7 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 		fmt.Fprintf(&b, "%s\n", s.Title)
 	}
 	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
-	if s.Fuel == "" || s.Fuel == casefile.InlineFuelName { // inline mole fractions have no name of their own
+	if s.Fuel == "" { // inline mole fractions have no name of their own
 		fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.FuelComposition))
 	} else {
 		fmt.Fprintf(&b, "  fuel                    %s: %s\n", s.Fuel, formatComposition(s.FuelComposition))
