@@ -200,10 +200,9 @@ type equilibrium struct {
 	dlnN, dlnT float64
 	mat, rhs   []float64
 	mat0, rhs0 []float64 // copies for the truncated retry
-	sym        *symmetricWork
 	lin        dense.Solver
 	// truncated selects the truncated symmetric solve for every Newton
-	// system (see solveSymmetricTruncated).
+	// system (see dense.Solver.SolveSymmetricTruncated).
 	truncated bool
 	// potentialStage is set during the element-potential stage, where a
 	// singular matrix falls back to the truncated solve.
@@ -326,7 +325,6 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 	m := nE + nC + 2
 	q.mat, q.rhs = make([]float64, m*m), make([]float64, m)
 	q.mat0, q.rhs0 = make([]float64, m*m), make([]float64, m)
-	q.sym = newSymmetricWork(m)
 	// Starting point of Gordon & McBride (1994, sec. 3.1): equal amounts of
 	// every gas species, total gas moles 0.1 per unit of initial moles
 	// (their 0.1 per kg is of the same order).
@@ -482,7 +480,7 @@ func (q *equilibrium) newtonSystem() error {
 		r[iT] = q.H0R/q.T - H + sumNHMu
 	}
 	if q.truncated {
-		if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+		if err := q.lin.SolveSymmetricTruncated(M, r, m, truncationRcond); err != nil {
 			return err
 		}
 	} else {
@@ -495,7 +493,7 @@ func (q *equilibrium) newtonSystem() error {
 			}
 			copy(M, M0)
 			copy(r, r0)
-			if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+			if err := q.lin.SolveSymmetricTruncated(M, r, m, truncationRcond); err != nil {
 				return err
 			}
 		}
@@ -514,11 +512,18 @@ func (q *equilibrium) newtonSystem() error {
 	}
 	for _, v := range r[:m] {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return errSingular
+			return dense.ErrSingular
 		}
 	}
 	return nil
 }
+
+// maxCondition is the estimated condition number (of the row-equilibrated
+// matrix) at which an equilibrium Newton matrix counts as singular in
+// floating point: about 1/ε of float64. Columns of the matrix differ by
+// up to ten decades (element potentials against ln n and ln T), which the
+// estimate includes; a smaller limit refuses regular systems.
+const maxCondition = 1e16
 
 // truncationRcond is the relative eigenvalue below which a direction of the
 // scaled Newton matrix is treated as null: 1e-12 keeps every direction that

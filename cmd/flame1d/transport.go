@@ -85,7 +85,7 @@ table unless --all is given.`,
 			if err != nil {
 				return fmt.Errorf("--mechanism: %w", err)
 			}
-			rep, err := computeTransport(m, fl)
+			rep, err := transportReportFor(m, fl)
 			if err != nil {
 				return err
 			}
@@ -139,9 +139,9 @@ func transportComposition(m *chem.Mechanism, set *thermo.SpeciesSet, fl transpor
 	return nil, errors.New(`give the composition: --mole-fractions "CH4=0.095,O2=0.19,N2=0.715" or --fuel CH4 --phi 1`)
 }
 
-// computeTransport converts the flags and evaluates the gas with
+// transportReportFor converts the flags and evaluates the gas with
 // transport.Model.Properties.
-func computeTransport(m *chem.Mechanism, fl transportFlags) (*transportReport, error) {
+func transportReportFor(m *chem.Mechanism, fl transportFlags) (*transportReport, error) {
 	T, err := quantityFlag("temperature", fl.Temperature, units.Temperature)
 	if err != nil {
 		return nil, err
