@@ -11,7 +11,6 @@ import (
 	"flame1d/fuel"
 	"flame1d/output"
 	"flame1d/study"
-	"flame1d/thermo"
 	"flame1d/units"
 )
 
@@ -33,27 +32,6 @@ const (
 	poolDefaultPhi         = 1.0
 	poolDefaultTemperature = "298.15 K"
 )
-
-// poolResult is one fuel of `flame1d pool`. Field names carry units.
-type poolResult struct {
-	Fuel        string             `json:"fuel"`
-	Kind        string             `json:"kind"`
-	Composition map[string]float64 `json:"composition,omitempty"`
-	Report      *fuel.PoolReport   `json:"report,omitempty"`
-	Inlet       *poolInlet         `json:"inlet"`
-}
-
-// poolInlet summarises the premixed inlet at the requested conditions.
-type poolInlet struct {
-	EquivalenceRatio    float64            `json:"equivalence_ratio"`
-	UnburnedTemperature float64            `json:"unburned_temperature_K"`
-	InletTemperature    float64            `json:"inlet_temperature_K"`
-	TemperatureShift    float64            `json:"temperature_shift_K"`
-	MoleFractions       map[string]float64 `json:"mole_fractions,omitempty"`
-	MassFractions       map[string]float64 `json:"mass_fractions,omitempty"`
-	// Error says why no inlet exists at these conditions.
-	Error string `json:"error,omitempty"`
-}
 
 func newPoolCmd() *cobra.Command {
 	o := poolOptions{}
@@ -151,34 +129,15 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 	if err != nil {
 		return err
 	}
-	set, err := fuel.SpeciesSet(m)
+	results, err := fuel.Represent(m, specs, ox, phi, Tu)
 	if err != nil {
-		return err
-	}
-	var results []poolResult
-	for _, s := range specs {
-		r, err := s.Resolve(m, set)
-		if err != nil {
-			return fmt.Errorf("%s: %w", path, err)
-		}
-		res := poolResult{Fuel: s.Name, Kind: r.Kind.String(), Composition: r.Composition, Report: r.Report,
-			Inlet: &poolInlet{EquivalenceRatio: phi, UnburnedTemperature: Tu}}
-		// An inlet that cannot be built (a pre-cracked pool too cold at
-		// this unburned temperature) is reported, not fatal: the pool
-		// itself is still what the user asked to see.
-		if in, err := r.Inlet(ox, phi, Tu); err != nil {
-			res.Inlet.Error = err.Error()
-		} else {
-			res.Inlet.InletTemperature, res.Inlet.TemperatureShift = in.T, in.TemperatureShift
-			res.Inlet.MoleFractions, res.Inlet.MassFractions = byName(r.Set, in.X), byName(r.Set, in.Y)
-		}
-		results = append(results, res)
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	if o.JSON {
 		return writeJSON(w, struct {
-			Mechanism string       `json:"mechanism"`
-			Fuels     []poolResult `json:"fuels"`
-			Note      string       `json:"note"`
+			Mechanism string                `json:"mechanism"`
+			Fuels     []fuel.Representation `json:"fuels"`
+			Note      string                `json:"note"`
 		}{m.Name, results, output.SafetyNote})
 	}
 	var b strings.Builder
@@ -190,18 +149,7 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 	return err
 }
 
-// byName maps the non-zero entries of v onto species names.
-func byName(set *thermo.SpeciesSet, v []float64) map[string]float64 {
-	out := map[string]float64{}
-	for k, x := range v {
-		if x != 0 {
-			out[set.Species[k].Name] = x
-		}
-	}
-	return out
-}
-
-func writePoolText(b *strings.Builder, r poolResult) {
+func writePoolText(b *strings.Builder, r fuel.Representation) {
 	fmt.Fprintf(b, "\nfuel %s (%s)\n", r.Fuel, r.Kind)
 	in := r.Inlet
 	if r.Report == nil {
