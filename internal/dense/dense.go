@@ -1,7 +1,8 @@
 // Package dense holds the small dense linear algebra the physics packages
-// share: the solution of a square system by LU factorisation (gonum/mat)
-// after row equilibration, and Gram-Schmidt orthonormalisation that keeps
-// the linearly independent vectors of a list. The block-tridiagonal
+// share: the solution of a square system by LU factorisation (gonum's
+// LAPACK) after row equilibration, its truncated least-squares fallback for
+// symmetric systems singular in floating point, and Gram-Schmidt
+// orthonormalisation that keeps the linearly independent vectors of a list. The block-tridiagonal
 // factorisation of the flame Jacobian is package newton's own.
 package dense
 
@@ -10,7 +11,10 @@ import (
 	"fmt"
 	"math"
 
-	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack"
+	"gonum.org/v1/gonum/lapack/lapack64"
 )
 
 // ErrSingular is returned for a system with a zero, non-finite or
@@ -18,30 +22,33 @@ import (
 var ErrSingular = errors.New("singular linear system")
 
 // Solver solves square systems M x = r of up to a few dozen unknowns. It
-// keeps its factorisation storage between calls; a Solver is used by one
-// goroutine at a time. The zero value is ready to use.
+// keeps its work storage between calls and allocates nothing once it has
+// seen the largest size; a Solver is used by one goroutine at a time. The
+// zero value is ready to use.
 type Solver struct {
-	lu   mat.LU
-	a    *mat.Dense
-	x, b *mat.VecDense
-	n    int
+	ipiv, iwork []int
+	work        []float64
 
 	// SolveSymmetricTruncated
 	scale, v, y []float64
 }
 
 // Solve solves the n×n system M x = r, M row-major, by LU factorisation
-// with partial pivoting (gonum/mat) after dividing each row by its largest
-// entry. The equilibration keeps pivoting meaningful when rows differ by
-// many orders of magnitude, as the balance rows of trace elements do
-// (Golub & Van Loan, Matrix Computations, 4th ed. 2013, sec. 3.5.2). M is
-// overwritten with its equilibrated rows and r receives x. The system is
-// refused (an error wrapping ErrSingular) when a row is zero or not finite,
-// or the estimated condition number of the equilibrated matrix is not below
-// maxCond: the solution would not be determined by the data.
+// with partial pivoting (LAPACK dgetrf/dgetrs as gonum's lapack64 has them)
+// after dividing each row by its largest entry. The equilibration keeps
+// pivoting meaningful when rows differ by many orders of magnitude, as the
+// balance rows of trace elements do (Golub & Van Loan, Matrix
+// Computations, 4th ed. 2013, sec. 3.5.2). M is overwritten with its
+// factors and r receives x. The system is refused (an error wrapping
+// ErrSingular) when a row is zero or not finite, a pivot vanishes, or the
+// estimated 1-norm condition number of the equilibrated matrix (dgecon) is
+// not below maxCond: the solution would not be determined by the data.
 func (s *Solver) Solve(M, r []float64, n int, maxCond float64) error {
 	if len(M) < n*n || len(r) < n {
 		return fmt.Errorf("dense: %d×%d system with %d matrix entries and %d right-hand sides", n, n, len(M), len(r))
+	}
+	if n == 0 {
+		return nil
 	}
 	for i := 0; i < n; i++ {
 		row := M[i*n : (i+1)*n]
@@ -58,22 +65,18 @@ func (s *Solver) Solve(M, r []float64, n int, maxCond float64) error {
 		}
 		r[i] *= inv
 	}
-	if s.n != n || s.a == nil {
-		s.n = n
-		s.a = mat.NewDense(n, n, nil)
-		s.x, s.b = mat.NewVecDense(n, nil), mat.NewVecDense(n, nil)
+	if len(s.ipiv) < n {
+		s.ipiv, s.iwork, s.work = make([]int, n), make([]int, n), make([]float64, 4*n)
 	}
-	a := s.a.RawMatrix()
-	copy(a.Data[:n*n], M[:n*n])
-	copy(s.b.RawVector().Data, r[:n])
-	s.lu.Factorize(s.a)
-	if c := s.lu.Cond(); !(c < maxCond) {
-		return fmt.Errorf("condition number %.3g: %w", c, ErrSingular)
+	a := blas64.General{Rows: n, Cols: n, Stride: n, Data: M[:n*n]}
+	anorm := lapack64.Lange(lapack.MaxColumnSum, a, s.work)
+	if !lapack64.Getrf(a, s.ipiv[:n]) {
+		return fmt.Errorf("zero pivot: %w", ErrSingular)
 	}
-	if err := s.lu.SolveVecTo(s.x, false, s.b); err != nil {
-		return fmt.Errorf("%v: %w", err, ErrSingular)
+	if rcond := lapack64.Gecon(lapack.MaxColumnSum, a, anorm, s.work[:4*n], s.iwork[:n]); !(rcond*maxCond > 1) {
+		return fmt.Errorf("condition number %.3g: %w", 1/rcond, ErrSingular)
 	}
-	copy(r[:n], s.x.RawVector().Data)
+	lapack64.Getrs(blas.NoTrans, a, blas64.General{Rows: n, Cols: 1, Stride: 1, Data: r[:n]}, s.ipiv[:n])
 	for _, v := range r[:n] {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return fmt.Errorf("solution not finite: %w", ErrSingular)
