@@ -4,19 +4,20 @@
 // strings ("298 K", "1 atm", "2 cm"); bare numbers are SI. Every key is
 // documented in docs/case-file.md. Unknown keys are errors that name the key
 // and its line, so typos never pass silently.
+//
+// It also reads the other files people write, into SI values for the
+// physics packages: fuel definitions ([fuels.NAME] tables, ReadFuels) and
+// thermodynamic cracking studies (ReadStudy), documented in docs/fuels.md,
+// and compositions written on a command line (ParseComposition).
 package casefile
 
 import (
-	"errors"
 	"fmt"
 	"os"
 	"sort"
 	"strings"
 
-	"github.com/BurntSushi/toml"
-
 	"flame1d/fuel"
-	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
 
@@ -94,6 +95,9 @@ type OutputSettings struct {
 // (it has no table name of its own); messages then point at the key.
 const InlineFuelName = "mixture.fuel"
 
+// DefaultMechanism is the built-in mechanism of a file that names none.
+const DefaultMechanism = "smith1999-natgas"
+
 // DefaultOxidizer is dry air as 21% O2 / 79% N2 by volume.
 func DefaultOxidizer() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
 
@@ -129,7 +133,7 @@ type raw struct {
 		Directory string `toml:"directory"`
 	} `toml:"output"`
 	Sweep   *rawSweep            `toml:"sweep"`
-	Fuels   map[string]fuel.Spec `toml:"fuels"`
+	Fuels   map[string]fuelTable `toml:"fuels"`
 	Compare *struct {
 		Fuels             []string  `toml:"fuels"`
 		EquivalenceRatios []float64 `toml:"equivalence_ratios"`
@@ -165,36 +169,22 @@ func ReadFile(path string) (*Case, error) {
 // Parse parses and checks case-file text; file names the source in errors.
 func Parse(src []byte, file string) (*Case, error) {
 	var r raw
-	md, err := toml.Decode(string(src), &r)
+	md, err := decodeStrict(src, file, &r, "docs/case-file.md")
 	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			// The decoder counts a line break it stumbles on as the start
-			// of the next line; the byte offset names the line it ends.
-			line := pe.Position.Line
-			if st := pe.Position.Start; st > 0 && st <= len(src) {
-				line = 1 + strings.Count(string(src[:st]), "\n")
-			}
-			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, line, pe.Message)
-		}
-		return nil, fmt.Errorf("%s: %w", file, err)
+		return nil, err
 	}
-	if und := md.Undecoded(); len(und) > 0 {
-		k := und[0]
-		return nil, &FieldError{File: file, Line: tomlpos.Line(src, k), Key: k.String(),
-			Msg: "unknown key (check the spelling; docs/case-file.md lists every key)"}
-	}
-	fe := func(key, format string, a ...any) error {
-		return &FieldError{File: file, Line: tomlpos.Line(src, strings.Split(key, ".")), Key: key, Msg: fmt.Sprintf(format, a...)}
-	}
+	fe := keyErrors(src, file)
 	c := &Case{File: file, Title: r.Title, Mechanism: r.Mechanism}
 	if c.Mechanism == "" {
-		c.Mechanism = "smith1999-natgas"
+		c.Mechanism = DefaultMechanism
 	}
 	for _, k := range md.Keys() {
 		if len(k) == 2 && k[0] == "fuels" {
-			spec := r.Fuels[k[1]]
-			spec.Name = k[1]
+			t := r.Fuels[k[1]]
+			spec, err := t.spec(k[1], fe)
+			if err != nil {
+				return nil, err
+			}
 			c.Fuels = append(c.Fuels, spec)
 		}
 	}

@@ -7,7 +7,6 @@ import (
 	"strconv"
 	"strings"
 
-	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
 
@@ -82,9 +81,7 @@ func parseSweep(rs *rawSweep, c *Case, src []byte, file string) (*SweepSettings,
 	if rs == nil {
 		return nil, nil
 	}
-	fe := func(key, format string, a ...any) error {
-		return &FieldError{File: file, Line: tomlpos.Line(src, strings.Split(key, ".")), Key: key, Msg: fmt.Sprintf(format, a...)}
-	}
+	fe := keyErrors(src, file)
 	s := &SweepSettings{ContinueAlong: rs.ContinueAlong}
 	given := map[string]*sweepValue{
 		SweepEquivalenceRatio: rs.EquivalenceRatio, SweepTemperature: rs.Temperature, SweepPressure: rs.Pressure,

@@ -9,6 +9,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/optimize"
+
+	"flame1d/internal/dense"
 )
 
 // Point is one flame speed to fit: equivalence ratio, unburned temperature
@@ -99,16 +101,18 @@ func Fit(data []Point, opt Options) (*Correlation, error) {
 	// alpha_1, beta_1.
 	free := []int{BM, B2, PhiM}
 	J := f.jacobian(guess, []int{BM, B2, PhiM, Alpha0, Beta0, Alpha1, Beta1})
-	basis := orthonormalColumns(J, []int{0, 1, 2})
-	if len(basis) < 3 {
+	basis := dense.Basis{Tol: dependenceTol}
+	for c := 0; c < 3; c++ {
+		basis.Add(mat.Col(nil, c, J))
+	}
+	if len(basis.Vectors) < 3 {
 		return nil, fmt.Errorf("%w: the equivalence ratios do not determine B_m, B_2 and phi_m", ErrDesign)
 	}
 	for k, coef := range []int{Alpha0, Beta0, Alpha1, Beta1} {
 		if (coef == Alpha1 && !contains(free, Alpha0)) || (coef == Beta1 && !contains(free, Beta0)) {
 			continue // the slope of an exponent that is not fitted
 		}
-		if v, ok := independentPart(J, 3+k, basis); ok {
-			basis = append(basis, v)
+		if basis.Add(mat.Col(nil, 3+k, J)) {
 			free = append(free, coef)
 			continue
 		}
@@ -304,41 +308,6 @@ func leastSquares(A *mat.Dense, b []float64) []float64 {
 		x[i] = sol.At(i, 0)
 	}
 	return x
-}
-
-// orthonormalColumns returns an orthonormal basis of the given columns of
-// J (modified Gram-Schmidt), dropping dependent ones.
-func orthonormalColumns(J *mat.Dense, cols []int) []*mat.VecDense {
-	var basis []*mat.VecDense
-	for _, c := range cols {
-		if v, ok := independentPart(J, c, basis); ok {
-			basis = append(basis, v)
-		}
-	}
-	return basis
-}
-
-// independentPart returns the normalised part of column c of J orthogonal
-// to the basis, and whether it is larger than dependenceTol relative to the
-// column.
-func independentPart(J *mat.Dense, c int, basis []*mat.VecDense) (*mat.VecDense, bool) {
-	col := mat.VecDenseCopyOf(J.ColView(c))
-	norm := mat.Norm(col, 2)
-	if norm == 0 {
-		return nil, false
-	}
-	col.ScaleVec(1/norm, col)
-	for pass := 0; pass < 2; pass++ {
-		for _, b := range basis {
-			col.AddScaledVec(col, -mat.Dot(col, b), b)
-		}
-	}
-	rest := mat.Norm(col, 2)
-	if rest < dependenceTol {
-		return nil, false
-	}
-	col.ScaleVec(1/rest, col)
-	return col, true
 }
 
 // minimise finds the least-squares coefficients: Newton's method on the

@@ -1,7 +1,6 @@
 package correlation
 
 import (
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -9,7 +8,7 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/BurntSushi/toml"
+	"flame1d/internal/tomlpos"
 )
 
 // FileFormat identifies flame1d's correlation files.
@@ -114,13 +113,9 @@ func ReadTOMLFile(path string) (*Correlation, error) {
 // source in errors.
 func ReadTOML(src []byte, file string) (*Correlation, error) {
 	var f tomlFile
-	md, err := toml.Decode(string(src), &f)
+	md, err := tomlpos.Decode(src, file, &f)
 	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			return nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, pe.Position.Line, pe.Message)
-		}
-		return nil, fmt.Errorf("%s: %w", file, err)
+		return nil, err
 	}
 	if und := md.Undecoded(); len(und) > 0 {
 		return nil, fmt.Errorf("%s: unknown key %s", file, und[0])

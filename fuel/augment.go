@@ -8,7 +8,6 @@ import (
 
 	"flame1d/chem"
 	"flame1d/thermo"
-	"flame1d/units"
 )
 
 // Defaults of the global cracking step FUEL -> pool, k = A exp(-E/(R T)),
@@ -32,18 +31,15 @@ func (g GlobalStepSpec) Rate() (chem.Arrhenius, error) {
 	if math.IsNaN(r.B) || math.Abs(r.B) > 10 {
 		return r, fmt.Errorf("global_step.temperature_exponent %g is not a sensible exponent (|b| <= 10)", r.B)
 	}
-	if g.ActivationEnergy.Given() {
-		e, err := g.ActivationEnergy.In(units.EnergyPerMole)
-		if err != nil {
-			return r, fmt.Errorf("global_step.activation_energy: %w", err)
-		}
-		if !(e >= 0) {
+	if g.ActivationEnergy != nil {
+		e := *g.ActivationEnergy
+		if !(e >= 0) || math.IsInf(e, 0) {
 			return r, fmt.Errorf("global_step.activation_energy must be non-negative (got %g J/mol)", e)
 		}
 		r.E = e
 	}
 	if g.PreExponential != 0 {
-		if g.CrackingTime.Given() || g.AtTemperature.Given() {
+		if g.CrackingTime != 0 || g.AtTemperature != 0 {
 			return r, fmt.Errorf("global_step: give either pre_exponential or cracking_time (with at_temperature), not both")
 		}
 		if !(g.PreExponential > 0) || math.IsInf(g.PreExponential, 0) {
@@ -53,20 +49,13 @@ func (g GlobalStepSpec) Rate() (chem.Arrhenius, error) {
 		return r, nil
 	}
 	tau, T := DefaultCrackingTime, DefaultCrackingTempK
-	var err error
-	if g.CrackingTime.Given() {
-		if tau, err = g.CrackingTime.In(units.Time); err != nil {
-			return r, fmt.Errorf("global_step.cracking_time: %w", err)
-		}
-		if !(tau > 0) {
+	if g.CrackingTime != 0 {
+		if tau = g.CrackingTime; !(tau > 0) || math.IsInf(tau, 0) {
 			return r, fmt.Errorf("global_step.cracking_time must be positive (got %g s)", tau)
 		}
 	}
-	if g.AtTemperature.Given() {
-		if T, err = g.AtTemperature.In(units.Temperature); err != nil {
-			return r, fmt.Errorf("global_step.at_temperature: %w", err)
-		}
-		if !(T >= 300 && T <= 3000) {
+	if g.AtTemperature != 0 {
+		if T = g.AtTemperature; !(T >= 300 && T <= 3000) {
 			return r, fmt.Errorf("global_step.at_temperature %g K is outside 300-3000 K", T)
 		}
 	}

@@ -9,6 +9,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/optimize/convex/lp"
 
+	"flame1d/internal/dense"
 	"flame1d/thermo"
 )
 
@@ -126,38 +127,28 @@ func carrierName(set *thermo.SpeciesSet) string {
 // combination of candidates holding exactly the fuel's atoms contains.
 func zeroSupport(set *thermo.SpeciesSet, f Formula, elems []string, cand []int) ([]int, error) {
 	nC := len(cand)
-	rows := make([][]float64, 0, len(elems))
-	var b []float64
-	var used []string
 	// Independent element rows over the candidates (Gram-Schmidt).
-	var basis [][]float64
-	for _, e := range elems {
+	all := make([][]float64, len(elems))
+	for i, e := range elems {
 		v := make([]float64, nC)
+		zero := true
 		for j, k := range cand {
 			v[j] = atomCount(set.Species[k].Composition, e)
+			zero = zero && v[j] == 0
 		}
-		w := append([]float64(nil), v...)
-		n0 := math.Sqrt(dotv(w, w))
-		for _, u := range basis {
-			d := dotv(w, u)
-			for j := range w {
-				w[j] -= d * u[j]
-			}
-		}
-		nn := math.Sqrt(dotv(w, w))
-		if n0 == 0 {
+		if zero {
 			return nil, fmt.Errorf("cracking equilibrium: no allowed species holds %s, which the fuel contains; lift a wall", e)
 		}
-		if nn <= 1e-10*n0 {
-			continue
-		}
-		for j := range w {
-			w[j] /= nn
-		}
-		basis = append(basis, w)
-		rows = append(rows, v)
-		b = append(b, f.element(e))
-		used = append(used, e)
+		all[i] = v
+	}
+	_, kept := dense.Orthonormalize(all, 1e-10)
+	rows := make([][]float64, 0, len(kept))
+	var b []float64
+	var used []string
+	for _, i := range kept {
+		rows = append(rows, all[i])
+		b = append(b, f.element(elems[i]))
+		used = append(used, elems[i])
 	}
 	A := mat.NewDense(len(rows), nC, nil)
 	for i, r := range rows {
@@ -199,14 +190,6 @@ func zeroSupport(set *thermo.SpeciesSet, f Formula, elems []string, cand []int) 
 		}
 	}
 	return forced, nil
-}
-
-func dotv(a, b []float64) float64 {
-	s := 0.0
-	for i := range a {
-		s += a[i] * b[i]
-	}
-	return s
 }
 
 // infeasibleFuel explains why the allowed species cannot hold the fuel.

@@ -17,11 +17,18 @@ func studySet(t *testing.T) *thermo.SpeciesSet {
 	t.Helper()
 	dir := sharedMechanisms(t)
 	base := readThermoFile(t, filepath.Join(dir, "c0c4", "thermo.dat"))
-	extra := filepath.Join(dir, "thermo-extra", "thermo.dat")
-	readThermoFile(t, extra) // skip cleanly when absent
-	sp, _, err := StudySpecies(base, "", []string{extra}, []string{"CSOLID"})
-	if err != nil {
-		t.Fatal(err)
+	sp := base
+	have := map[string]bool{}
+	for _, s := range base {
+		have[strings.ToUpper(s.Name)] = true
+	}
+	for _, s := range readThermoFile(t, filepath.Join(dir, "thermo-extra", "thermo.dat")) {
+		if !have[strings.ToUpper(s.Name)] {
+			if strings.EqualFold(s.Name, "CSOLID") {
+				s.Condensed = true
+			}
+			sp = append(sp, s)
+		}
 	}
 	set, err := thermo.NewSpeciesSet(sp)
 	if err != nil {

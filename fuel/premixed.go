@@ -4,9 +4,10 @@
 // species they crack into (mean formula, heating value, measured yields or
 // constrained equilibrium; a pseudo-species with a global cracking step, or
 // the pool itself as a pre-cracked inlet); the premixed fuel/oxidizer
-// charge at an equivalence ratio; and thermodynamic cracking studies over
-// sequences of walled-off species. Fuel definitions are TOML (Spec,
-// ParseFuels, ParseStudy), documented key by key in docs/fuels.md.
+// charge at an equivalence ratio and its chemical equilibrium; and
+// thermodynamic cracking studies over sequences of walled-off species. It
+// takes SI values: package casefile reads fuel definitions and study files
+// (documented key by key in docs/fuels.md) into Spec and StudyStep.
 package fuel
 
 import (

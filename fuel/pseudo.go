@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"flame1d/internal/dense"
 	"flame1d/thermo"
 )
 
@@ -153,8 +154,8 @@ func PseudoThermo(set *thermo.SpeciesSet, p *poolAmounts, hf, s298 float64) (the
 	// of T/1000 (up to 5) have condition numbers near 1e11, which keeps
 	// about five significant digits; the fitted cp is compared with the
 	// pool's below and the deviation reported.
-	sol, err := solveSmall(K, r, n, 1e15)
-	if err != nil {
+	sol := r
+	if err := dense.Solve(K, sol, n, 1e15); err != nil {
 		return thermo.NASA7{}, 0, fmt.Errorf("pseudo-species thermo: cp fit failed: %v", err)
 	}
 	var poly thermo.NASA7

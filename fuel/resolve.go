@@ -8,7 +8,6 @@ import (
 
 	"flame1d/chem"
 	"flame1d/thermo"
-	"flame1d/units"
 )
 
 // Kind says how a fuel is represented on the mechanism.
@@ -173,7 +172,7 @@ func (s Spec) Resolve(m *chem.Mechanism, set *thermo.SpeciesSet) (*Resolved, err
 
 func (s Spec) resolve(m *chem.Mechanism, set *thermo.SpeciesSet) (*Resolved, error) {
 	if len(s.Composition) > 0 {
-		if s.IsPool() || s.Mode != "" || s.Cracking.Method != "" || len(s.Cracking.Yields) > 0 || s.Cracking.Temperature.Given() {
+		if s.IsPool() || s.Mode != "" || s.Cracking.Method != "" || len(s.Cracking.Yields) > 0 || s.Cracking.Temperature != 0 {
 			return nil, fmt.Errorf("give either composition (neat fuel or surrogate) or a cracked-pool definition (formula, heating value, cracking), not both")
 		}
 		if _, err := Composition(m, "composition", s.Composition); err != nil {
@@ -190,7 +189,7 @@ func (s Spec) resolve(m *chem.Mechanism, set *thermo.SpeciesSet) (*Resolved, err
 		return nil, fmt.Errorf("no definition: give composition = { SPECIES = mole fraction, ... } for a neat fuel, or formula, a heating value and [cracking] for a real fuel (docs/fuels.md)")
 	}
 	rep := &PoolReport{Fuel: s.Name, Description: s.Description, Mechanism: m.Name}
-	f, err := s.formula()
+	f, err := s.MeanFormula()
 	if err != nil {
 		return nil, err
 	}
@@ -205,7 +204,7 @@ func (s Spec) resolve(m *chem.Mechanism, set *thermo.SpeciesSet) (*Resolved, err
 		return nil, fmt.Errorf("mode %q: use %q (pseudo-species plus global cracking step) or %q (the inlet is the pool itself)", s.Mode, ModeFiniteRate, ModePreCracked)
 	}
 	rep.Mode = mode
-	if mode == ModePreCracked && (s.GlobalStep != GlobalStepSpec{}) {
+	if mode == ModePreCracked && s.GlobalStep.Given() {
 		return nil, fmt.Errorf("global_step applies only to mode = %q; remove it or change the mode", ModeFiniteRate)
 	}
 
@@ -246,19 +245,12 @@ func (s Spec) resolve(m *chem.Mechanism, set *thermo.SpeciesSet) (*Resolved, err
 	return res, nil
 }
 
-// formula returns the mean formula from formula or h_to_c/o_to_c with
-// molar_mass.
-func (s Spec) formula() (Formula, error) {
-	var W float64
-	if s.MolarMass.Given() {
-		w, err := s.MolarMass.molarMass()
-		if err != nil {
-			return Formula{}, fmt.Errorf("molar_mass: %w", err)
-		}
-		if !(w > 0) {
-			return Formula{}, fmt.Errorf("molar_mass must be positive (got %g kg/mol)", w)
-		}
-		W = w
+// MeanFormula returns the fuel's mean formula, from Formula or from HToC
+// and OToC with MolarMass.
+func (s Spec) MeanFormula() (Formula, error) {
+	W := s.MolarMass
+	if W != 0 && !(W > 0 && W < 10) {
+		return Formula{}, fmt.Errorf("molar_mass must be positive (got %g kg/mol)", W)
 	}
 	if s.Formula != "" {
 		if s.HToC != 0 || s.OToC != 0 {
@@ -299,7 +291,7 @@ func (s Spec) crack(set *thermo.SpeciesSet, f Formula, rep *PoolReport) (*poolAm
 	}
 	switch method {
 	case MethodYields:
-		if c.Temperature.Given() || c.Pressure.Given() || len(c.Candidates) > 0 || len(c.Exclude) > 0 {
+		if c.Temperature != 0 || c.Pressure != 0 || len(c.Candidates) > 0 || len(c.Exclude) > 0 {
 			return nil, fmt.Errorf("cracking: temperature, pressure, candidates and exclude belong to method = %q", MethodEquilibrium)
 		}
 		scale := true
@@ -346,19 +338,12 @@ func DefaultCandidates(set *thermo.SpeciesSet, f Formula) []int {
 
 func (s Spec) equilibriumPool(set *thermo.SpeciesSet, f Formula, rep *PoolReport) (*poolAmounts, error) {
 	c := s.Cracking
-	if !c.Temperature.Given() || !c.Pressure.Given() {
+	if c.Temperature == 0 || c.Pressure == 0 {
 		return nil, fmt.Errorf("cracking: method = %q needs temperature and pressure (the pool depends on both), e.g. temperature = \"1300 K\", pressure = \"10 bar\"", MethodEquilibrium)
 	}
-	T, err := c.Temperature.In(units.Temperature)
-	if err != nil {
-		return nil, fmt.Errorf("cracking.temperature: %w", err)
-	}
+	T, P := c.Temperature, c.Pressure
 	if !(T >= 500 && T <= 3000) {
 		return nil, fmt.Errorf("cracking.temperature %g K is outside 500-3000 K", T)
-	}
-	P, err := c.Pressure.In(units.Pressure)
-	if err != nil {
-		return nil, fmt.Errorf("cracking.pressure: %w", err)
 	}
 	if !(P >= 100 && P <= 1e8) {
 		return nil, fmt.Errorf("cracking.pressure %g Pa is outside 100 Pa - 100 MPa", P)
@@ -464,16 +449,12 @@ func closureResiduals(set *thermo.SpeciesSet, f Formula, pa *poolAmounts) Elemen
 // value, builds the pseudo-species and fills the report's numbers.
 func (s Spec) thermochemistry(set *thermo.SpeciesSet, f Formula, pa *poolAmounts, pool *Pool, rep *PoolReport) error {
 	W := f.MolarMass()
-	if s.LowerHeatingValue.Given() == s.HigherHeatingValue.Given() {
+	if (s.LowerHeatingValue != 0) == (s.HigherHeatingValue != 0) {
 		return fmt.Errorf("give exactly one of lower_heating_value and higher_heating_value (e.g. lower_heating_value = \"43.2 MJ/kg\")")
 	}
-	key, q := "lower_heating_value", s.LowerHeatingValue
-	if s.HigherHeatingValue.Given() {
-		key, q = "higher_heating_value", s.HigherHeatingValue
-	}
-	hv, err := q.In(units.EnergyPerMass)
-	if err != nil {
-		return fmt.Errorf("%s: %w", key, err)
+	key, hv := "lower_heating_value", s.LowerHeatingValue
+	if s.HigherHeatingValue != 0 {
+		key, hv = "higher_heating_value", s.HigherHeatingValue
 	}
 	if !(hv > 1e6 && hv < 2e8) {
 		return fmt.Errorf("%s %g J/kg is outside 1-200 MJ/kg; check the unit", key, hv)
@@ -483,11 +464,8 @@ func (s Spec) thermochemistry(set *thermo.SpeciesSet, f Formula, pa *poolAmounts
 		lhv = hv - HHVMinusLHV(f)
 	}
 	var hvap float64
-	if s.VaporizationEnthalpy.Given() {
-		if hvap, err = s.VaporizationEnthalpy.In(units.EnergyPerMass); err != nil {
-			return fmt.Errorf("vaporization_enthalpy: %w", err)
-		}
-		if !(hvap >= 0 && hvap < 2e6) {
+	if s.VaporizationEnthalpy != 0 {
+		if hvap = s.VaporizationEnthalpy; !(hvap >= 0 && hvap < 2e6) {
 			return fmt.Errorf("vaporization_enthalpy %g J/kg is outside 0-2 MJ/kg", hvap)
 		}
 		rep.LiquidLHV, rep.LiquidHHV, rep.VaporizationEnthalpy = lhv, lhv+HHVMinusLHV(f), hvap
@@ -519,11 +497,8 @@ func (s Spec) thermochemistry(set *thermo.SpeciesSet, f Formula, pa *poolAmounts
 	sort.SliceStable(rep.Pool, func(a, b int) bool { return rep.Pool[a].Mass > rep.Pool[b].Mass })
 
 	s298, estimated := EstimateStandardEntropy(f), true
-	if s.StandardEntropy.Given() {
-		if s298, err = s.StandardEntropy.entropy(); err != nil {
-			return fmt.Errorf("standard_entropy: %w", err)
-		}
-		if !(s298 > 0) {
+	if s.StandardEntropy != 0 {
+		if s298 = s.StandardEntropy; !(s298 > 0) || math.IsInf(s298, 0) {
 			return fmt.Errorf("standard_entropy must be positive (got %g J/(mol K))", s298)
 		}
 		estimated = false
@@ -566,13 +541,10 @@ func (s Spec) transport(W float64) (chem.TransportParams, string, error) {
 		return tp, "estimated from molar mass (n-alkane critical constants, Tee, Gotoh & Stewart 1966)", err
 	}
 	t := s.Transport
-	if !(t.WellDepth > 0) || !t.Diameter.Given() {
+	if !(t.WellDepth > 0) || t.Diameter == 0 {
 		return chem.TransportParams{}, "", fmt.Errorf("transport: give both well_depth (K) and diameter (e.g. \"7.1 Å\")")
 	}
-	d, err := t.Diameter.diameter()
-	if err != nil {
-		return chem.TransportParams{}, "", fmt.Errorf("transport.diameter: %w", err)
-	}
+	d := t.Diameter
 	if !(d > 1e-10 && d < 3e-9) {
 		return chem.TransportParams{}, "", fmt.Errorf("transport.diameter %g m is outside 1-30 Å", d)
 	}

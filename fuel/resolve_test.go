@@ -20,19 +20,19 @@ var air = map[string]float64{"O2": 0.21, "N2": 0.79}
 // skeletal mechanism lacks; given H/C 1.93, so closing takes a little H2).
 func kerosene() Spec {
 	return Spec{
-		Name: "ref-kerosene", Formula: "C11.4H22.23", LowerHeatingValue: "43.2 MJ/kg",
+		Name: "ref-kerosene", Formula: "C11.4H22.23", LowerHeatingValue: 43.2e6,
 		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 2.6, "ch4": 0.8, "c3h6": 0.5, "c4h6": 0.6, "c2h2": 0.8, "h2": 0.2}},
 	}
 }
 
 func TestResolveClosureAndHeatingValue(t *testing.T) {
 	m, set := builtinMech(t, "lu2009-heptane")
-	eq := Spec{Name: "eq", HToC: 2, MolarMass: "154.3 g/mol", LowerHeatingValue: "43 MJ/kg",
-		Cracking: CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "10 bar", Exclude: []string{"c2h2", "c3h4-a", "c3h4-p", "c3h2", "c4h6"}}}
-	oxy := Spec{Name: "oxy", Formula: "C10H20O0.5", HigherHeatingValue: "45 MJ/kg",
+	eq := Spec{Name: "eq", HToC: 2, MolarMass: 0.1543, LowerHeatingValue: 43e6,
+		Cracking: CrackingSpec{Method: "equilibrium", Temperature: 1300, Pressure: 10e5, Exclude: []string{"c2h2", "c3h4-a", "c3h4-p", "c3h2", "c4h6"}}}
+	oxy := Spec{Name: "oxy", Formula: "C10H20O0.5", HigherHeatingValue: 45e6,
 		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 3, "c2h2": 0.5}}}
 	liquid := kerosene()
-	liquid.Name, liquid.VaporizationEnthalpy = "liquid", "0.36 MJ/kg"
+	liquid.Name, liquid.VaporizationEnthalpy = "liquid", 0.36e6
 	for _, s := range []Spec{kerosene(), eq, oxy, liquid} {
 		for _, mode := range []string{ModeFiniteRate, ModePreCracked} {
 			s.Mode = mode
@@ -62,9 +62,9 @@ func TestResolveClosureAndHeatingValue(t *testing.T) {
 			hhv, _ := one.HigherHeatingValue(x)
 			var want, got float64
 			switch {
-			case s.HigherHeatingValue.Given():
+			case s.HigherHeatingValue != 0:
 				want, got = 45e6, hhv
-			case s.VaporizationEnthalpy.Given():
+			case s.VaporizationEnthalpy != 0:
 				want, got = 43.2e6+0.36e6, lhv
 			default:
 				want, got = map[string]float64{"ref-kerosene": 43.2e6, "eq": 43e6}[s.Name], lhv
@@ -118,7 +118,7 @@ func TestFormationEnthalpyNHeptane(t *testing.T) {
 	m, set := builtinMech(t, "lu2009-heptane")
 	W := Formula{C: 7, H: 16}.MolarMass()
 	s := Spec{Name: "heptane-as-pool", Formula: "C7H16",
-		HigherHeatingValue: Quantity(ftoa(4817e3/W) + " J/kg"), VaporizationEnthalpy: Quantity(ftoa(36.6e3/W) + " J/kg"),
+		HigherHeatingValue: 4817e3 / W, VaporizationEnthalpy: 36.6e3 / W,
 		Cracking: CrackingSpec{Yields: map[string]float64{"c2h4": 3, "ch4": 1}}}
 	r, err := s.Resolve(m, set)
 	if err != nil {
@@ -223,12 +223,12 @@ func TestGlobalStepRate(t *testing.T) {
 		wantErr string
 	}{
 		{GlobalStepSpec{}, 1300, 1e-4, ""},
-		{GlobalStepSpec{CrackingTime: "50 us", AtTemperature: "1400 K", ActivationEnergy: "200 kJ/mol"}, 1400, 50e-6, ""},
-		{GlobalStepSpec{CrackingTime: "1 ms", TemperatureExponent: 1.5}, 1300, 1e-3, ""},
-		{GlobalStepSpec{PreExponential: 1e13, ActivationEnergy: "0 J/mol"}, 1000, 1e-13, ""},
-		{GlobalStepSpec{PreExponential: 1e13, CrackingTime: "1 ms"}, 0, 0, "not both"},
-		{GlobalStepSpec{CrackingTime: "-1 ms"}, 0, 0, "positive"},
-		{GlobalStepSpec{ActivationEnergy: "250 kJ/kg"}, 0, 0, "unknown energy per mole unit"},
+		{GlobalStepSpec{CrackingTime: 50e-6, AtTemperature: 1400, ActivationEnergy: joulesPerMole(200e3)}, 1400, 50e-6, ""},
+		{GlobalStepSpec{CrackingTime: 1e-3, TemperatureExponent: 1.5}, 1300, 1e-3, ""},
+		{GlobalStepSpec{PreExponential: 1e13, ActivationEnergy: joulesPerMole(0)}, 1000, 1e-13, ""},
+		{GlobalStepSpec{PreExponential: 1e13, CrackingTime: 1e-3}, 0, 0, "not both"},
+		{GlobalStepSpec{CrackingTime: -1e-3}, 0, 0, "positive"},
+		{GlobalStepSpec{ActivationEnergy: joulesPerMole(-1)}, 0, 0, "non-negative"},
 	} {
 		r, err := c.g.Rate()
 		if c.wantErr != "" {
@@ -355,23 +355,23 @@ func TestResolveRefusals(t *testing.T) {
 		edit func(s *Spec)
 		want string
 	}{
-		{"no heating value", func(s *Spec) { s.LowerHeatingValue = "" }, "exactly one of"},
-		{"two heating values", func(s *Spec) { s.HigherHeatingValue = "46 MJ/kg" }, "exactly one of"},
-		{"heating value unit", func(s *Spec) { s.LowerHeatingValue = "43.2" }, "outside 1-200 MJ/kg"},
+		{"no heating value", func(s *Spec) { s.LowerHeatingValue = 0 }, "exactly one of"},
+		{"two heating values", func(s *Spec) { s.HigherHeatingValue = 46e6 }, "exactly one of"},
+		{"heating value unit", func(s *Spec) { s.LowerHeatingValue = 43.2 }, "outside 1-200 MJ/kg"},
 		{"mode", func(s *Spec) { s.Mode = "cracked" }, "mode \"cracked\""},
-		{"molar mass disagrees", func(s *Spec) { s.MolarMass = "170 g/mol" }, "disagrees with formula"},
+		{"molar mass disagrees", func(s *Spec) { s.MolarMass = 0.170 }, "disagrees with formula"},
 		{"h_to_c without molar mass", func(s *Spec) { s.Formula, s.HToC = "", 1.95 }, "needs molar_mass"},
 		{"equilibrium without conditions", func(s *Spec) {
 			s.Cracking = CrackingSpec{Method: "equilibrium"}
 		}, "needs temperature and pressure"},
-		{"keys of the other method", func(s *Spec) { s.Cracking.Temperature = "1300 K" }, "belong to method = \"equilibrium\""},
+		{"keys of the other method", func(s *Spec) { s.Cracking.Temperature = 1300 }, "belong to method = \"equilibrium\""},
 		{"global step in pre-cracked mode", func(s *Spec) {
-			s.Mode, s.GlobalStep.CrackingTime = ModePreCracked, "1 ms"
+			s.Mode, s.GlobalStep.CrackingTime = ModePreCracked, 1e-3
 		}, "only to mode"},
 		{"transport out of range", func(s *Spec) { s.Formula = "C30H62" }, "outside the n-alkane range"},
 		{"bad species name", func(s *Spec) { s.SpeciesName = "KERO A" }, "may not contain blanks"},
 		{"walled to infeasibility", func(s *Spec) {
-			s.Cracking = CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "1 atm",
+			s.Cracking = CrackingSpec{Method: "equilibrium", Temperature: 1300, Pressure: 101325,
 				Candidates: []string{"ch4", "c2h6", "h2"}}
 		}, "cannot hold the fuel's atoms"},
 	} {
@@ -387,3 +387,5 @@ func TestResolveRefusals(t *testing.T) {
 		}
 	}
 }
+
+func joulesPerMole(e float64) *float64 { return &e }

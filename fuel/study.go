@@ -1,65 +1,25 @@
 package fuel
 
 import (
-	"errors"
 	"fmt"
 	"math"
-	"os"
-	"path/filepath"
 	"sort"
 	"strings"
 
-	"github.com/BurntSushi/toml"
-
-	"flame1d/chem/keyblock"
-	"flame1d/chem/mechtoml"
-	"flame1d/internal/tomlpos"
 	"flame1d/thermo"
-	"flame1d/units"
 )
-
-// StudySpec is a thermodynamic cracking study: the constrained equilibrium
-// of one fuel at fixed temperature and pressure, repeated over a sequence
-// of cumulative walls (species held at zero). It is the [study] table of a
-// study file; docs/fuels.md documents every key.
-type StudySpec struct {
-	Title string `toml:"title"`
-	// Mechanism supplies species and thermo (built-in name or path); the
-	// caller loads it. Optional when ExtraSpecies gives every species.
-	Mechanism string `toml:"mechanism"`
-	// ExtraSpecies are further species: classic thermo files (any name
-	// not ending in .toml) or flame1d TOML mechanisms, relative to the
-	// study file. A name already present keeps its first definition.
-	ExtraSpecies []string `toml:"extra_species"`
-	// Condensed names species to treat as pure condensed phases (e.g.
-	// graphite carried as "CSOLID").
-	Condensed []string `toml:"condensed"`
-	// Fuel names a fuel of the file's [fuels] table; or give the formula
-	// (or h_to_c with molar_mass) here.
-	Fuel      string   `toml:"fuel"`
-	Formula   string   `toml:"formula"`
-	HToC      float64  `toml:"h_to_c"`
-	OToC      float64  `toml:"o_to_c"`
-	MolarMass Quantity `toml:"molar_mass"`
-
-	Temperature Quantity `toml:"temperature"`
-	Pressure    Quantity `toml:"pressure"`
-	// Candidates, when given, restricts the study to these species.
-	Candidates []string    `toml:"candidates"`
-	Steps      []StudyStep `toml:"steps"`
-}
 
 // StudyStep adds walls to those of the steps before it.
 type StudyStep struct {
-	Label string `toml:"label"`
+	Label string
 	// Exclude names species to wall off.
-	Exclude []string `toml:"exclude"`
+	Exclude []string
 	// ExcludeGroups walls off classes of species by formula: "condensed",
 	// "aromatics" (Aromatic), "polyaromatics" (Polyaromatic), "radicals"
 	// (not ClosedShell).
-	ExcludeGroups []string `toml:"exclude_groups"`
+	ExcludeGroups []string
 	// MaxCarbon > 0 walls off every species with more carbon atoms.
-	MaxCarbon int `toml:"max_carbon"`
+	MaxCarbon int
 }
 
 // Wall groups of StudyStep.ExcludeGroups.
@@ -68,166 +28,6 @@ var wallGroups = map[string]func(sp *thermo.Species) bool{
 	"aromatics":     func(sp *thermo.Species) bool { return Aromatic(sp.Composition) },
 	"polyaromatics": func(sp *thermo.Species) bool { return Polyaromatic(sp.Composition) },
 	"radicals":      func(sp *thermo.Species) bool { return !sp.Condensed && !ClosedShell(sp.Composition) },
-}
-
-// StudyFile is the layout of a study file.
-type StudyFile struct {
-	Study StudySpec       `toml:"study"`
-	Fuels map[string]Spec `toml:"fuels"`
-}
-
-// ParseStudy reads a study file; file names the source in errors. Unknown
-// keys are errors with their line.
-func ParseStudy(src []byte, file string) (*StudySpec, map[string]Spec, error) {
-	var sf StudyFile
-	md, err := toml.Decode(string(src), &sf)
-	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
-			return nil, nil, fmt.Errorf("%s:%d: TOML syntax: %s", file, pe.Position.Line, pe.Message)
-		}
-		return nil, nil, fmt.Errorf("%s: %w", file, err)
-	}
-	if und := md.Undecoded(); len(und) > 0 {
-		k := und[0]
-		return nil, nil, fmt.Errorf("%s:%d: %s: unknown key (check the spelling; docs/fuels.md lists every key)", file, tomlpos.Line(src, k), k.String())
-	}
-	if !md.IsDefined("study") {
-		return nil, nil, fmt.Errorf("%s: no [study] table (see docs/fuels.md)", file)
-	}
-	for n, s := range sf.Fuels {
-		s.Name = n
-		sf.Fuels[n] = s
-	}
-	return &sf.Study, sf.Fuels, nil
-}
-
-// ReadStudy reads a study file from disk.
-func ReadStudy(path string) (*StudySpec, map[string]Spec, error) {
-	src, err := os.ReadFile(path)
-	if err != nil {
-		return nil, nil, fmt.Errorf("study file: %w", err)
-	}
-	return ParseStudy(src, path)
-}
-
-// StudyFormula returns the study fuel's mean formula, from the named fuel
-// of fuels or from the study's own formula keys.
-func (st *StudySpec) StudyFormula(fuels map[string]Spec) (Formula, error) {
-	own := Spec{Formula: st.Formula, HToC: st.HToC, OToC: st.OToC, MolarMass: st.MolarMass}
-	hasOwn := own.Formula != "" || own.HToC != 0 || own.MolarMass.Given()
-	if st.Fuel != "" {
-		if hasOwn {
-			return Formula{}, fmt.Errorf("study: give fuel (a name in [fuels]) or formula, not both")
-		}
-		s, ok := fuels[st.Fuel]
-		if !ok {
-			return Formula{}, fmt.Errorf("study.fuel: no [fuels.%s] table in the file", st.Fuel)
-		}
-		if len(s.Composition) > 0 {
-			return Formula{}, fmt.Errorf("study.fuel: %s is a neat fuel or surrogate; a cracking study needs a mean formula", st.Fuel)
-		}
-		f, err := s.formula()
-		if err != nil {
-			return Formula{}, fmt.Errorf("fuels.%s: %w", st.Fuel, err)
-		}
-		return f, nil
-	}
-	if !hasOwn {
-		return Formula{}, fmt.Errorf("study: name the fuel (fuel = \"NAME\" of a [fuels.NAME] table) or give formula = \"C11H22\"")
-	}
-	f, err := own.formula()
-	if err != nil {
-		return Formula{}, fmt.Errorf("study: %w", err)
-	}
-	return f, nil
-}
-
-// Conditions returns the study's temperature (K) and pressure (Pa).
-func (st *StudySpec) Conditions() (T, P float64, err error) {
-	if !st.Temperature.Given() || !st.Pressure.Given() {
-		return 0, 0, fmt.Errorf("study: give temperature and pressure, e.g. temperature = \"1300 K\", pressure = \"10 bar\"")
-	}
-	if T, err = st.Temperature.In(units.Temperature); err != nil {
-		return 0, 0, fmt.Errorf("study.temperature: %w", err)
-	}
-	if !(T >= 300 && T <= 4000) {
-		return 0, 0, fmt.Errorf("study.temperature %g K is outside 300-4000 K", T)
-	}
-	if P, err = st.Pressure.In(units.Pressure); err != nil {
-		return 0, 0, fmt.Errorf("study.pressure: %w", err)
-	}
-	if !(P >= 1 && P <= 1e9) {
-		return 0, 0, fmt.Errorf("study.pressure %g Pa is outside 1 Pa - 1 GPa", P)
-	}
-	return T, P, nil
-}
-
-// StudySpecies assembles the species of a study: base (typically a
-// mechanism's) followed by those of the extra files (paths relative to
-// dir), with the Condensed names marked condensed. A species repeated
-// under the same name keeps its first definition; the notes say which
-// were skipped.
-func StudySpecies(base []thermo.Species, dir string, extra, condensed []string) ([]thermo.Species, []string, error) {
-	out := append([]thermo.Species(nil), base...)
-	have := map[string]bool{}
-	for _, s := range out {
-		have[strings.ToUpper(s.Name)] = true
-	}
-	var notes []string
-	for _, p := range extra {
-		path := p
-		if !filepath.IsAbs(path) && dir != "" {
-			path = filepath.Join(dir, p)
-		}
-		var sp []thermo.Species
-		if strings.HasSuffix(strings.ToLower(path), ".toml") {
-			m, _, err := mechtoml.ReadFile(path)
-			if err != nil {
-				return nil, nil, fmt.Errorf("study.extra_species %s: %w", p, err)
-			}
-			for i := range m.Species {
-				sp = append(sp, m.Species[i].Species)
-			}
-		} else {
-			f, err := os.Open(path)
-			if err != nil {
-				return nil, nil, fmt.Errorf("study.extra_species: %w", err)
-			}
-			recs, _, err := keyblock.ReadThermo(f, path)
-			f.Close()
-			if err != nil {
-				return nil, nil, fmt.Errorf("study.extra_species %s: %w", p, err)
-			}
-			for i := range recs {
-				sp = append(sp, recs[i].Species)
-			}
-		}
-		var skipped []string
-		for _, s := range sp {
-			if have[strings.ToUpper(s.Name)] {
-				skipped = append(skipped, s.Name)
-				continue
-			}
-			have[strings.ToUpper(s.Name)] = true
-			out = append(out, s)
-		}
-		if len(skipped) > 0 {
-			notes = append(notes, fmt.Sprintf("%s: kept the earlier definition of %s", p, strings.Join(skipped, " ")))
-		}
-	}
-	for _, n := range condensed {
-		found := false
-		for i := range out {
-			if strings.EqualFold(out[i].Name, strings.TrimSpace(n)) {
-				out[i].Condensed, found = true, true
-			}
-		}
-		if !found {
-			return nil, nil, fmt.Errorf("study.condensed: no species %q among the study's species", n)
-		}
-	}
-	return out, notes, nil
 }
 
 // StudyResult is the product distribution of each step of a study.

@@ -6,8 +6,7 @@ import (
 	"sort"
 	"strings"
 
-	"gonum.org/v1/gonum/mat"
-
+	"flame1d/internal/dense"
 	"flame1d/thermo"
 )
 
@@ -176,8 +175,8 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 			M[r*nE+c+j] = atoms(i, e)
 		}
 	}
-	sol, err := solveSmall(M, rhs, nE, 1e12)
-	if err != nil {
+	sol := rhs
+	if err := dense.Solve(M, sol, nE, 1e12); err != nil {
 		return nil, nil, fmt.Errorf("cracking: the closure unknowns (%s) cannot close the %s balances independently: %s",
 			closureUnknowns(set, p.index, bal, scale), strings.Join(elems, ", "), singularHint(scale, given))
 	}
@@ -314,24 +313,6 @@ func negativeClosure(set *thermo.SpeciesSet, f Formula, p *poolAmounts, given []
 		msg += fmt.Sprintf(" (after scaling the given yields by %.6g)", s)
 	}
 	return fmt.Errorf("%s", msg)
-}
-
-// solveSmall solves the n×n system M x = r (M row-major) by LU
-// factorisation with partial pivoting (gonum/mat). It fails when M is
-// singular or its condition number exceeds maxCond: the system would not be
-// determined by its data.
-func solveSmall(M, r []float64, n int, maxCond float64) ([]float64, error) {
-	A := mat.NewDense(n, n, M)
-	var lu mat.LU
-	lu.Factorize(A)
-	if c := lu.Cond(); !(c < maxCond) {
-		return nil, fmt.Errorf("singular system (condition number %.3g)", c)
-	}
-	x := mat.NewVecDense(n, nil)
-	if err := lu.SolveVecTo(x, false, mat.NewVecDense(n, r)); err != nil {
-		return nil, err
-	}
-	return x.RawVector().Data, nil
 }
 
 // setSuggestion names the species of set closest to name.

@@ -9,7 +9,6 @@ import (
 	"sort"
 	"strings"
 
-	"flame1d/casefile"
 	"flame1d/flame"
 )
 
@@ -18,7 +17,7 @@ import (
 type FlameSummary struct {
 	Title                string             `json:"title,omitempty"`
 	Mechanism            string             `json:"mechanism"`
-	Fuel                 string             `json:"fuel"`
+	Fuel                 string             `json:"fuel"` // empty for inline mole fractions
 	FuelComposition      map[string]float64 `json:"fuel_mole_fractions"`
 	Oxidizer             map[string]float64 `json:"oxidizer_mole_fractions"`
 	EquivalenceRatio     float64            `json:"equivalence_ratio"`
@@ -81,9 +80,8 @@ func (s *FlameSummary) FuelName() string {
 	return formatComposition(s.FuelComposition)
 }
 
-func (s *FlameSummary) inlineFuel() bool {
-	return s.Fuel == "" || s.Fuel == casefile.InlineFuelName
-}
+// inlineFuel: a fuel given as inline mole fractions has no name of its own.
+func (s *FlameSummary) inlineFuel() bool { return s.Fuel == "" }
 
 // WriteText writes the short human summary.
 func (s *FlameSummary) WriteText(w io.Writer) error {

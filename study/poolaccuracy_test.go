@@ -83,12 +83,12 @@ func runPoolAccuracy(t *testing.T, phis []float64) *accuracyRun {
 	if err != nil {
 		t.Fatal(err)
 	}
-	heat := fuel.Quantity(fmt.Sprintf("%.12g J/kg", lhv))
+	heat := lhv // J/kg
 	specs := map[string]fuel.Spec{
 		"yields": {Name: "pool-yields", Formula: "C7H16", LowerHeatingValue: heat, SpeciesName: "C7POOL",
 			Cracking: fuel.CrackingSpec{Method: "yields", Yields: y}},
 		"equilibrium": {Name: "pool-equilibrium", Formula: "C7H16", LowerHeatingValue: heat, SpeciesName: "C7POOL",
-			Cracking: fuel.CrackingSpec{Method: "equilibrium", Temperature: "1300 K", Pressure: "1 atm",
+			Cracking: fuel.CrackingSpec{Method: "equilibrium", Temperature: 1300, Pressure: 101325,
 				Exclude: []string{"c2h2", "c3h4-a", "c3h4-p", "c3h2", "c4h6"}}},
 	}
 	run.detailed = detailed

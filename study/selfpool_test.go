@@ -1,7 +1,6 @@
 package study
 
 import (
-	"fmt"
 	"math"
 	"testing"
 
@@ -44,12 +43,12 @@ temperature = "298 K"
 	if err != nil {
 		t.Fatal(err)
 	}
-	spec := fuel.Spec{Name: "methane-pool", Formula: "CH4", LowerHeatingValue: fuel.Quantity(fmt.Sprintf("%.15g J/kg", lhv)),
+	spec := fuel.Spec{Name: "methane-pool", Formula: "CH4", LowerHeatingValue: lhv,
 		SpeciesName: "PSEUDO", Cracking: fuel.CrackingSpec{Method: "yields", Yields: map[string]float64{"CH4": 1}},
-		GlobalStep: fuel.GlobalStepSpec{CrackingTime: "1 us", ActivationEnergy: "0 J/mol"},
+		GlobalStep: fuel.GlobalStepSpec{CrackingTime: 1e-6, ActivationEnergy: new(float64)}, // E = 0
 		// GRI-Mech 3.0 transport parameters of CH4, so that only the
 		// cracking representation differs.
-		Transport: &fuel.TransportSpec{WellDepth: 141.4, Diameter: "3.746 Å"}}
+		Transport: &fuel.TransportSpec{WellDepth: 141.4, Diameter: 3.746e-10}}
 	pool, err := NewForFuel(c, mech, spec, nil)
 	if err != nil {
 		t.Fatal(err)

@@ -63,15 +63,25 @@ type Result struct {
 // LoadMechanism resolves a case's mechanism: a built-in name, or a path
 // relative to the case file's folder.
 func LoadMechanism(c *casefile.Case) (*chem.Mechanism, error) {
-	name := c.Mechanism
-	if strings.HasSuffix(name, ".toml") && !filepath.IsAbs(name) && c.File != "" {
+	return LoadMechanismFor(c.Mechanism, c.File)
+}
+
+// LoadMechanismFor loads the mechanism a file names: a built-in name, or a
+// path to a flame1d TOML mechanism relative to the folder of file (or to
+// the working directory, where it exists there); an empty name is
+// casefile.DefaultMechanism. Errors name file.
+func LoadMechanismFor(name, file string) (*chem.Mechanism, error) {
+	if name == "" {
+		name = casefile.DefaultMechanism
+	}
+	if strings.HasSuffix(name, ".toml") && !filepath.IsAbs(name) && file != "" {
 		if _, err := os.Stat(name); err != nil {
-			name = filepath.Join(filepath.Dir(c.File), name)
+			name = filepath.Join(filepath.Dir(file), name)
 		}
 	}
 	m, err := builtin.Load(name)
 	if err != nil {
-		return nil, fmt.Errorf("%s: mechanism: %w", c.File, err)
+		return nil, fmt.Errorf("%s: mechanism: %w", file, err)
 	}
 	return m, nil
 }
@@ -198,8 +208,12 @@ func (s *Study) FuelSpecies() []string {
 	return names
 }
 
-// FuelDescription is a short human description of the fuel.
+// FuelDescription is a short human description of the fuel; empty for a
+// fuel given as inline mole fractions.
 func (s *Study) FuelDescription() string {
+	if s.Fuel.Name == casefile.InlineFuelName {
+		return "" // inline mole fractions have no name of their own
+	}
 	if s.Fuel.Kind == fuel.Neat {
 		return s.Fuel.Name
 	}

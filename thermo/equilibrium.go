@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"flame1d/internal/dense"
 )
 
 // EquilibriumOptions control EquilibrateTP, EquilibrateHP and AdiabaticFlame.
@@ -198,9 +200,9 @@ type equilibrium struct {
 	dlnN, dlnT float64
 	mat, rhs   []float64
 	mat0, rhs0 []float64 // copies for the truncated retry
-	sym        *symmetricWork
+	lin        dense.Solver
 	// truncated selects the truncated symmetric solve for every Newton
-	// system (see solveSymmetricTruncated).
+	// system (see dense.Solver.SolveSymmetricTruncated).
 	truncated bool
 	// potentialStage is set during the element-potential stage, where a
 	// singular matrix falls back to the truncated solve.
@@ -323,7 +325,6 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 	m := nE + nC + 2
 	q.mat, q.rhs = make([]float64, m*m), make([]float64, m)
 	q.mat0, q.rhs0 = make([]float64, m*m), make([]float64, m)
-	q.sym = newSymmetricWork(m)
 	// Starting point of Gordon & McBride (1994, sec. 3.1): equal amounts of
 	// every gas species, total gas moles 0.1 per unit of initial moles
 	// (their 0.1 per kg is of the same order).
@@ -339,8 +340,8 @@ func (s *SpeciesSet) newEquilibrium(P float64, moles []float64, opt EquilibriumO
 // Gram-Schmidt in declaration order.
 func independentElements(s *SpeciesSet, active []int, b []float64) []int {
 	nAll := len(s.Elements)
-	var basis [][]float64
-	var keep []int
+	var rows [][]float64
+	var present []int
 	for e := 0; e < nAll; e++ {
 		if !(b[e] > 0) {
 			continue
@@ -349,32 +350,15 @@ func independentElements(s *SpeciesSet, active []int, b []float64) []int {
 		for j, k := range active {
 			v[j] = s.atoms[k*nAll+e]
 		}
-		norm0 := math.Sqrt(dot(v, v))
-		for _, u := range basis {
-			d := dot(v, u)
-			for j := range v {
-				v[j] -= d * u[j]
-			}
-		}
-		norm := math.Sqrt(dot(v, v))
-		if norm <= 1e-10*norm0 {
-			continue
-		}
-		for j := range v {
-			v[j] /= norm
-		}
-		basis = append(basis, v)
-		keep = append(keep, e)
+		rows = append(rows, v)
+		present = append(present, e)
+	}
+	_, kept := dense.Orthonormalize(rows, 1e-10)
+	keep := make([]int, len(kept))
+	for i, r := range kept {
+		keep[i] = present[r]
 	}
 	return keep
-}
-
-func dot(a, b []float64) float64 {
-	s := 0.0
-	for i := range a {
-		s += a[i] * b[i]
-	}
-	return s
 }
 
 func (q *equilibrium) updateThermo() {
@@ -496,20 +480,20 @@ func (q *equilibrium) newtonSystem() error {
 		r[iT] = q.H0R/q.T - H + sumNHMu
 	}
 	if q.truncated {
-		if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+		if err := q.lin.SolveSymmetricTruncated(M, r, m, truncationRcond); err != nil {
 			return err
 		}
 	} else {
 		M0, r0 := q.mat0[:m*m], q.rhs0[:m]
 		copy(M0, M)
 		copy(r0, r)
-		if err := solveDense(M, r, m); err != nil {
+		if err := q.lin.Solve(M, r, m, maxCondition); err != nil {
 			if !q.potentialStage {
 				return err
 			}
 			copy(M, M0)
 			copy(r, r0)
-			if err := solveSymmetricTruncated(M, r, m, q.sym, truncationRcond); err != nil {
+			if err := q.lin.SolveSymmetricTruncated(M, r, m, truncationRcond); err != nil {
 				return err
 			}
 		}
@@ -528,11 +512,18 @@ func (q *equilibrium) newtonSystem() error {
 	}
 	for _, v := range r[:m] {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return errSingular
+			return dense.ErrSingular
 		}
 	}
 	return nil
 }
+
+// maxCondition is the estimated condition number (of the row-equilibrated
+// matrix) at which an equilibrium Newton matrix counts as singular in
+// floating point: about 1/ε of float64. Columns of the matrix differ by
+// up to ten decades (element potentials against ln n and ln T), which the
+// estimate includes; a smaller limit refuses regular systems.
+const maxCondition = 1e16
 
 // truncationRcond is the relative eigenvalue below which a direction of the
 // scaled Newton matrix is treated as null: 1e-12 keeps every direction that

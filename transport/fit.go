@@ -3,6 +3,8 @@ package transport
 import (
 	"fmt"
 	"math"
+
+	"gonum.org/v1/gonum/mat"
 )
 
 // lnTScale maps T to the fit variable u = (ln T - c)/h in [-1, 1] over
@@ -40,65 +42,32 @@ const (
 )
 
 // fitPolynomial returns the degree-deg least-squares polynomial in u through
-// (u_i, y_i) on Chebyshev-Lobatto nodes (which keep the error near-minimax
-// at the interval ends). The normal equations are solved by Gaussian
-// elimination with partial pivoting; on [-1, 1] with deg <= 8 they are well
-// conditioned.
+// (u_i, f(u_i)) on Chebyshev-Lobatto nodes (which keep the error
+// near-minimax at the interval ends), coefficients in rising powers. The
+// least-squares problem is solved by QR factorisation of the Vandermonde
+// matrix (gonum/mat), which on [-1, 1] with deg <= 8 is well conditioned.
 func fitPolynomial(deg int, f func(u float64) float64) ([]float64, error) {
 	n := deg + 1
-	a := make([]float64, n*n)
-	rhs := make([]float64, n)
-	pw := make([]float64, 2*n)
+	V := mat.NewDense(fitNodes, n, nil)
+	y := mat.NewVecDense(fitNodes, nil)
 	for i := 0; i < fitNodes; i++ {
 		u := -math.Cos(math.Pi * float64(i) / float64(fitNodes-1))
-		y := f(u)
-		if math.IsNaN(y) || math.IsInf(y, 0) {
-			return nil, fmt.Errorf("non-finite value %g at fit node u=%.3f", y, u)
+		v := f(u)
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("non-finite value %g at fit node u=%.3f", v, u)
 		}
-		pw[0] = 1
-		for k := 1; k < 2*n; k++ {
-			pw[k] = pw[k-1] * u
-		}
-		for r := 0; r < n; r++ {
-			rhs[r] += pw[r] * y
-			for c := 0; c < n; c++ {
-				a[r*n+c] += pw[r+c]
-			}
+		y.SetVec(i, v)
+		p := 1.0
+		for k := 0; k < n; k++ {
+			V.Set(i, k, p)
+			p *= u
 		}
 	}
-	for col := 0; col < n; col++ {
-		piv := col
-		for r := col + 1; r < n; r++ {
-			if math.Abs(a[r*n+col]) > math.Abs(a[piv*n+col]) {
-				piv = r
-			}
-		}
-		if a[piv*n+col] == 0 {
-			return nil, fmt.Errorf("singular normal equations in polynomial fit")
-		}
-		if piv != col {
-			for c := 0; c < n; c++ {
-				a[col*n+c], a[piv*n+c] = a[piv*n+c], a[col*n+c]
-			}
-			rhs[col], rhs[piv] = rhs[piv], rhs[col]
-		}
-		for r := col + 1; r < n; r++ {
-			m := a[r*n+col] / a[col*n+col]
-			for c := col; c < n; c++ {
-				a[r*n+c] -= m * a[col*n+c]
-			}
-			rhs[r] -= m * rhs[col]
-		}
+	var c mat.VecDense
+	if err := c.SolveVec(V, y); err != nil {
+		return nil, fmt.Errorf("polynomial fit: %v", err)
 	}
-	coef := make([]float64, n)
-	for r := n - 1; r >= 0; r-- {
-		s := rhs[r]
-		for c := r + 1; c < n; c++ {
-			s -= a[r*n+c] * coef[c]
-		}
-		coef[r] = s / a[r*n+r]
-	}
-	return coef, nil
+	return append([]float64(nil), c.RawVector().Data...), nil
 }
 
 // fitError returns the largest err(fit(u), f(u)) over errorNodes evenly

@@ -3,8 +3,6 @@ package transport_test
 import (
 	"math"
 	"testing"
-
-	"flame1d/thermo"
 )
 
 const atm = 101325.0
@@ -214,32 +212,16 @@ func TestAirViscosity(t *testing.T) {
 // model's few-percent errors in lambda and D.
 func TestLewisNumbers(t *testing.T) {
 	m, tr := natgas(t)
-	K := len(m.Species)
-	X := make([]float64, K)
+	set := speciesSet(t, m)
+	X := make([]float64, len(m.Species))
 	X[index(t, m, "CH4")] = 0.095
 	X[index(t, m, "O2")] = 0.19
 	X[index(t, m, "N2")] = 0.715
-	Y := make([]float64, K)
-	W, err := m.MolarMasses()
+	g, err := tr.Properties(set, 300, atm, X)
 	if err != nil {
 		t.Fatal(err)
 	}
-	wMean := 0.0
-	for k := range X {
-		wMean += X[k] * W[k]
-	}
-	cp := 0.0 // J/(kg K)
-	for k := range X {
-		Y[k] = X[k] * W[k] / wMean
-		cp += Y[k] * m.Species[k].Thermo.CpR(300) * thermo.GasConstant / W[k]
-	}
-	T := 300.0
-	rho := atm * wMean / (thermo.GasConstant * T)
-	out := transportMixture(t, tr, T, atm, X, Y)
-	le := func(name string) float64 {
-		k := index(t, m, name)
-		return out.Conductivity / (rho * cp * out.Diffusion[k])
-	}
+	le := func(name string) float64 { return g.Lewis[index(t, m, name)] }
 	for _, c := range []struct {
 		name   string
 		lo, hi float64

@@ -2,8 +2,8 @@
 // "0.1 MPa", "45 kJ/mol") to the SI units used inside flame1d.
 //
 // The SI unit of each dimension: temperature K, pressure Pa, length m, time
-// s, energy per mole J/mol, energy per mass J/kg. A bare number is taken to
-// be in SI already.
+// s, energy per mole J/mol, energy per mass J/kg, molar mass kg/mol, molar
+// entropy J/(mol K). A bare number is taken to be in SI already.
 package units
 
 import (
@@ -24,6 +24,8 @@ const (
 	Time                           // s
 	EnergyPerMole                  // J/mol
 	EnergyPerMass                  // J/kg
+	MolarMass                      // kg/mol
+	MolarEntropy                   // J/(mol K), also molar heat capacity
 )
 
 // String returns the dimension's name in words.
@@ -41,6 +43,10 @@ func (d Dimension) String() string {
 		return "energy per mole"
 	case EnergyPerMass:
 		return "energy per mass"
+	case MolarMass:
+		return "molar mass"
+	case MolarEntropy:
+		return "molar entropy"
 	}
 	return fmt.Sprintf("Dimension(%d)", int(d))
 }
@@ -70,6 +76,7 @@ var tables = map[Dimension][]unit{
 	},
 	Length: {
 		{"m", 1, 0}, {"cm", 1e-2, 0}, {"mm", 1e-3, 0}, {"um", 1e-6, 0}, {"µm", 1e-6, 0},
+		{"nm", 1e-9, 0}, {"Å", 1e-10, 0}, {"angstrom", 1e-10, 0},
 	},
 	Time: {
 		{"s", 1, 0}, {"ms", 1e-3, 0}, {"us", 1e-6, 0}, {"µs", 1e-6, 0}, {"μs", 1e-6, 0},
@@ -79,6 +86,13 @@ var tables = map[Dimension][]unit{
 	},
 	EnergyPerMass: {
 		{"J/kg", 1, 0}, {"kJ/kg", 1e3, 0}, {"MJ/kg", 1e6, 0},
+	},
+	MolarMass: {
+		{"kg/mol", 1, 0}, {"g/mol", 1e-3, 0}, {"kg/kmol", 1e-3, 0},
+	},
+	MolarEntropy: {
+		{"J/mol/K", 1, 0}, {"J/(mol K)", 1, 0}, {"J/(mol*K)", 1, 0},
+		{"cal/mol/K", 4.184, 0}, {"cal/(mol K)", 4.184, 0}, {"cal/(mol*K)", 4.184, 0},
 	},
 }
 

@@ -40,6 +40,14 @@ func TestParse(t *testing.T) {
 		{"44.0 kJ/mol", EnergyPerMole, 44000, ""},
 		{"50 MJ/kg", EnergyPerMass, 5e7, ""},
 		{"  120 kJ/kg  ", EnergyPerMass, 1.2e5, "surrounding blanks"},
+		{"0.72 nm", Length, 7.2e-10, ""},
+		{"7.2 Å", Length, 7.2e-10, "1 Å = 1e-10 m, exact"},
+		{"158 g/mol", MolarMass, 0.158, ""},
+		{"0.158", MolarMass, 0.158, "bare number is SI"},
+		{"44 kg/kmol", MolarMass, 0.044, ""},
+		{"590 J/mol/K", MolarEntropy, 590, ""},
+		{"590 J/(mol K)", MolarEntropy, 590, ""},
+		{"100 cal/mol/K", MolarEntropy, 418.4, "thermochemical calorie, 4.184 J exact"},
 	}
 	for _, c := range cases {
 		got, err := Parse(c.in, c.d)
@@ -85,7 +93,7 @@ func TestParseErrors(t *testing.T) {
 }
 
 func TestEveryUnitParses(t *testing.T) {
-	for d := Temperature; d <= EnergyPerMass; d++ {
+	for d := Temperature; d <= MolarEntropy; d++ {
 		names := Units(d)
 		if len(names) == 0 {
 			t.Errorf("%v: no units", d)

@@ -1,7 +1,6 @@
 package mechtoml
 
 import (
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -11,10 +10,9 @@ import (
 	"strings"
 	"time"
 
-	"github.com/BurntSushi/toml"
-
 	"flame1d/chem"
 	"flame1d/chem/internal/equation"
+	"flame1d/internal/tomlpos"
 )
 
 // FormatVersion is the version of the mechanism file format this package
@@ -136,26 +134,13 @@ func sub(path []string, key ...string) []string {
 	return append(append(p, path...), key...)
 }
 
-// decodeTOML parses text, turning a panic of the TOML library (none is
-// known) into an error: no input may crash a caller.
-func decodeTOML(text string) (doc map[string]any, err error) {
-	defer func() {
-		if p := recover(); p != nil {
-			doc, err = nil, fmt.Errorf("TOML decoder failed: %v", p)
-		}
-	}()
-	_, err = toml.Decode(text, &doc)
-	return doc, err
-}
-
 func (rd *reader) read(text string) *chem.Mechanism {
-	doc, err := decodeTOML(text)
-	if err != nil {
-		var pe toml.ParseError
-		if errors.As(err, &pe) {
+	var doc map[string]any
+	if _, err := tomlpos.DecodeBare([]byte(text), &doc); err != nil {
+		if line, msg, ok := tomlpos.SyntaxError([]byte(text), err); ok {
 			rd.problems = append(rd.problems, chem.Problem{
-				Pos:     chem.Position{File: rd.file, Line: pe.Position.Line},
-				Message: "not valid TOML: " + pe.Message,
+				Pos:     chem.Position{File: rd.file, Line: line},
+				Message: "not valid TOML: " + msg,
 			})
 		} else {
 			rd.errorf(nil, "", "not valid TOML: %v", err)

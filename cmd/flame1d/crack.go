@@ -8,9 +8,8 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"flame1d/fuel"
 	"flame1d/output"
-	"flame1d/thermo"
+	"flame1d/study"
 )
 
 // Species listed in the crack outputs: those holding at least this share
@@ -61,20 +60,15 @@ Prints the carbon share of each species per step and writes into -o
 	return cmd
 }
 
-// crackStudy is a computed study with what its outputs need.
-type crackStudy struct {
-	Title  string
-	Source string
-	Result *fuel.StudyResult
-	Set    *thermo.SpeciesSet
-	Notes  []string
-}
+// crackStudy prints and writes a computed cracking study.
+type crackStudy struct{ *study.Cracking }
 
 func runCrack(w io.Writer, path, dir string) error {
-	cs, err := computeCrack(path)
+	c, err := study.RunCracking(path)
 	if err != nil {
 		return err
 	}
+	cs := crackStudy{c}
 	if err := cs.writeText(w); err != nil {
 		return err
 	}
@@ -92,65 +86,12 @@ func runCrack(w io.Writer, path, dir string) error {
 	return nil
 }
 
-func computeCrack(path string) (*crackStudy, error) {
-	st, fuels, err := fuel.ReadStudy(path)
-	if err != nil {
-		return nil, err
-	}
-	f, err := st.StudyFormula(fuels)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	T, P, err := st.Conditions()
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	var base []thermo.Species
-	source := ""
-	if st.Mechanism != "" {
-		m, err := mechanismFor("", st.Mechanism, path)
-		if err != nil {
-			return nil, err
-		}
-		for i := range m.Species {
-			base = append(base, m.Species[i].Species)
-		}
-		source = m.Name
-	}
-	if len(st.ExtraSpecies) > 0 {
-		if source != "" {
-			source += " + "
-		}
-		source += strings.Join(st.ExtraSpecies, " + ")
-	}
-	if source == "" {
-		return nil, fmt.Errorf("%s: study: give mechanism or extra_species: the study needs species", path)
-	}
-	species, notes, err := fuel.StudySpecies(base, filepath.Dir(path), st.ExtraSpecies, st.Condensed)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	set, err := thermo.NewSpeciesSet(species)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	res, err := fuel.RunStudy(set, f, T, P, st.Candidates, st.Steps)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	title := st.Title
-	if title == "" {
-		title = "cracking study of " + f.String()
-	}
-	return &crackStudy{Title: title, Source: source, Result: res, Set: set, Notes: notes}, nil
-}
-
-func (cs *crackStudy) chartTitle() string {
+func (cs crackStudy) chartTitle() string {
 	r := cs.Result
 	return fmt.Sprintf("%s: %s at %g K, %.4g bar", cs.Title, r.Formula, r.T, r.P/1e5)
 }
 
-func (cs *crackStudy) comments() []string {
+func (cs crackStudy) comments() []string {
 	r := cs.Result
 	c := []string{
 		"flame1d cracking study: " + cs.Title,
@@ -171,7 +112,7 @@ func (cs *crackStudy) comments() []string {
 }
 
 // table lays the study out as one row per step.
-func (cs *crackStudy) table() *output.Table {
+func (cs crackStudy) table() *output.Table {
 	r := cs.Result
 	idx := r.Significant(tableShare)
 	t := &output.Table{Comments: cs.comments(), Header: []string{"step [-]"}}
@@ -206,7 +147,7 @@ func (cs *crackStudy) table() *output.Table {
 
 // chartSeries gives one stacked layer per species holding at least
 // chartShare of the carbon in some step, the rest lumped as "other".
-func (cs *crackStudy) chartSeries() ([]string, []output.Series) {
+func (cs crackStudy) chartSeries() ([]string, []output.Series) {
 	r := cs.Result
 	cats := make([]string, len(r.Steps))
 	for i, st := range r.Steps {
@@ -245,7 +186,7 @@ func (cs *crackStudy) chartSeries() ([]string, []output.Series) {
 	return cats, series
 }
 
-func (cs *crackStudy) writeText(w io.Writer) error {
+func (cs crackStudy) writeText(w io.Writer) error {
 	r := cs.Result
 	var b strings.Builder
 	for _, c := range cs.comments() {

@@ -3,21 +3,19 @@ package main
 import (
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 
 	"github.com/spf13/cobra"
 
-	"flame1d/builtin"
-	"flame1d/chem"
+	"flame1d/casefile"
 	"flame1d/fuel"
 	"flame1d/output"
-	"flame1d/thermo"
+	"flame1d/study"
 	"flame1d/units"
 )
 
-// poolOptions are the flags of `flame1d pool`.
+// poolOptions are the flags of `flame1d pool`. The conditions are empty or
+// zero where not given on the command line.
 type poolOptions struct {
 	Mechanism   string
 	Fuel        string
@@ -27,26 +25,13 @@ type poolOptions struct {
 	JSON        bool
 }
 
-// poolResult is one fuel of `flame1d pool`. Field names carry units.
-type poolResult struct {
-	Fuel        string             `json:"fuel"`
-	Kind        string             `json:"kind"`
-	Composition map[string]float64 `json:"composition,omitempty"`
-	Report      *fuel.PoolReport   `json:"report,omitempty"`
-	Inlet       *poolInlet         `json:"inlet"`
-}
-
-// poolInlet summarises the premixed inlet at the requested conditions.
-type poolInlet struct {
-	EquivalenceRatio    float64            `json:"equivalence_ratio"`
-	UnburnedTemperature float64            `json:"unburned_temperature_K"`
-	InletTemperature    float64            `json:"inlet_temperature_K"`
-	TemperatureShift    float64            `json:"temperature_shift_K"`
-	MoleFractions       map[string]float64 `json:"mole_fractions,omitempty"`
-	MassFractions       map[string]float64 `json:"mass_fractions,omitempty"`
-	// Error says why no inlet exists at these conditions.
-	Error string `json:"error,omitempty"`
-}
+// Conditions of the inlet shown when neither the command line nor the
+// file's [mixture] table gives them.
+const (
+	poolDefaultOxidizer    = "O2=0.21,N2=0.79"
+	poolDefaultPhi         = 1.0
+	poolDefaultTemperature = "298.15 K"
+)
 
 func newPoolCmd() *cobra.Command {
 	o := poolOptions{}
@@ -60,15 +45,18 @@ value, the enthalpy of formation they imply, the pool (mol per mol and kg
 per kg of fuel, share of the carbon), the cracking enthalpy, the element
 closure residuals, every adjustment made to measured yields, the
 pseudo-species (thermo, transport, global cracking step) and the premixed
-inlet at --phi and --T (in pre-cracked mode with the lowered inlet
+inlet at --phi and --temperature (in pre-cracked mode with the lowered inlet
 temperature). No flame is solved. Every key is described in docs/fuels.md.
 
 The mechanism is --mechanism, else the file's top-level mechanism key
-(relative to the file), else smith1999-natgas.
+(relative to the file), else smith1999-natgas. The inlet's oxidizer,
+equivalence ratio and unburned temperature are the flags', else those of the
+file's [mixture] table (a case file), else air, 1 and 298.15 K.
 
 ` + output.SafetyNote,
 		Example: `  flame1d pool examples/fuels/kerosenes.toml
-  flame1d pool examples/fuels/kerosenes.toml --fuel syn-kerosene --phi 0.8 --T "500 K"
+  flame1d pool examples/fuels/kerosenes.toml --fuel syn-kerosene --phi 0.8 --temperature "500 K"
+  flame1d pool examples/kerosene-compare.toml
   flame1d pool fuels.toml --mechanism lu2009-heptane --json > pools.json`,
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -78,40 +66,19 @@ The mechanism is --mechanism, else the file's top-level mechanism key
 	f := cmd.Flags()
 	f.StringVar(&o.Mechanism, "mechanism", "", "built-in mechanism name or path to a flame1d TOML mechanism")
 	f.StringVar(&o.Fuel, "fuel", "", "only this fuel of the file")
-	f.StringVar(&o.Oxidizer, "oxidizer", "O2:0.21,N2:0.79", "oxidizer mole fractions")
-	f.Float64Var(&o.Phi, "phi", 1, "equivalence ratio of the inlet shown")
-	f.StringVar(&o.Temperature, "T", "298.15 K", "unburned temperature of the inlet shown")
+	f.StringVar(&o.Oxidizer, "oxidizer", "", `oxidizer mole fractions, e.g. "O2=0.21,N2=0.79" (default: the file's [mixture], else air)`)
+	f.Float64Var(&o.Phi, "phi", 0, "equivalence ratio of the inlet shown (default: the file's [mixture], else 1)")
+	f.StringVar(&o.Temperature, "temperature", "", `unburned temperature of the inlet shown, e.g. "500 K" (default: the file's [mixture], else 298.15 K)`)
 	f.BoolVar(&o.JSON, "json", false, "print the reports as JSON")
 	return cmd
 }
 
-// mechanismFor resolves a mechanism named by a flag or a file key: a
-// built-in name, or a path relative to the file's folder.
-func mechanismFor(flag, key, file string) (*chem.Mechanism, error) {
-	name := flag
-	if name == "" && key != "" {
-		name = key
-		if strings.HasSuffix(name, ".toml") && !filepath.IsAbs(name) {
-			if _, err := os.Stat(name); err != nil {
-				name = filepath.Join(filepath.Dir(file), name)
-			}
-		}
-	}
-	if name == "" {
-		name = "smith1999-natgas"
-	}
-	m, err := builtin.Load(name)
-	if err != nil {
-		return nil, fmt.Errorf("%s: mechanism: %w", file, err)
-	}
-	return m, nil
-}
-
 func runPool(w io.Writer, path string, o poolOptions) error {
-	mechKey, specs, err := fuel.ReadFuels(path)
+	ff, err := casefile.ReadFuels(path)
 	if err != nil {
 		return err
 	}
+	specs := ff.Fuels
 	if o.Fuel != "" {
 		var keep []fuel.Spec
 		var names []string
@@ -126,47 +93,51 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 		}
 		specs = keep
 	}
-	Tu, err := units.Parse(o.Temperature, units.Temperature)
-	if err != nil {
-		return fmt.Errorf("--T: %w", err)
+	var Tu float64
+	switch {
+	case o.Temperature != "":
+		if Tu, err = quantityFlag("temperature", o.Temperature, units.Temperature); err != nil {
+			return err
+		}
+	case ff.Temperature > 0:
+		Tu = ff.Temperature
+	default:
+		Tu = units.MustParse(poolDefaultTemperature, units.Temperature)
 	}
-	ox, err := parseComposition(o.Oxidizer)
-	if err != nil {
-		return fmt.Errorf("--oxidizer: %w", err)
+	phi := o.Phi
+	if phi == 0 {
+		phi = ff.EquivalenceRatio
 	}
-	ox = normalise(ox)
-	m, err := mechanismFor(o.Mechanism, mechKey, path)
+	if phi == 0 {
+		phi = poolDefaultPhi
+	}
+	ox := ff.Oxidizer
+	if o.Oxidizer != "" || ox == nil {
+		text := o.Oxidizer
+		if text == "" {
+			text = poolDefaultOxidizer
+		}
+		if ox, err = compositionFlag("oxidizer", text); err != nil {
+			return err
+		}
+	}
+	mech := o.Mechanism
+	if mech == "" {
+		mech = ff.Mechanism
+	}
+	m, err := study.LoadMechanismFor(mech, path)
 	if err != nil {
 		return err
 	}
-	set, err := fuel.SpeciesSet(m)
+	results, err := fuel.Represent(m, specs, ox, phi, Tu)
 	if err != nil {
-		return err
-	}
-	var results []poolResult
-	for _, s := range specs {
-		r, err := s.Resolve(m, set)
-		if err != nil {
-			return fmt.Errorf("%s: %w", path, err)
-		}
-		res := poolResult{Fuel: s.Name, Kind: r.Kind.String(), Composition: r.Composition, Report: r.Report,
-			Inlet: &poolInlet{EquivalenceRatio: o.Phi, UnburnedTemperature: Tu}}
-		// An inlet that cannot be built (a pre-cracked pool too cold at
-		// this unburned temperature) is reported, not fatal: the pool
-		// itself is still what the user asked to see.
-		if in, err := r.Inlet(ox, o.Phi, Tu); err != nil {
-			res.Inlet.Error = err.Error()
-		} else {
-			res.Inlet.InletTemperature, res.Inlet.TemperatureShift = in.T, in.TemperatureShift
-			res.Inlet.MoleFractions, res.Inlet.MassFractions = byName(r.Set, in.X), byName(r.Set, in.Y)
-		}
-		results = append(results, res)
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	if o.JSON {
 		return writeJSON(w, struct {
-			Mechanism string       `json:"mechanism"`
-			Fuels     []poolResult `json:"fuels"`
-			Note      string       `json:"note"`
+			Mechanism string                `json:"mechanism"`
+			Fuels     []fuel.Representation `json:"fuels"`
+			Note      string                `json:"note"`
 		}{m.Name, results, output.SafetyNote})
 	}
 	var b strings.Builder
@@ -178,18 +149,7 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 	return err
 }
 
-// byName maps the non-zero entries of v onto species names.
-func byName(set *thermo.SpeciesSet, v []float64) map[string]float64 {
-	out := map[string]float64{}
-	for k, x := range v {
-		if x != 0 {
-			out[set.Species[k].Name] = x
-		}
-	}
-	return out
-}
-
-func writePoolText(b *strings.Builder, r poolResult) {
+func writePoolText(b *strings.Builder, r fuel.Representation) {
 	fmt.Fprintf(b, "\nfuel %s (%s)\n", r.Fuel, r.Kind)
 	in := r.Inlet
 	if r.Report == nil {

@@ -40,7 +40,7 @@ func TestPoolCommandText(t *testing.T) {
 }
 
 func TestPoolCommandJSON(t *testing.T) {
-	out, err := runCmd(t, "pool", keroseneExample, "--fuel", "syn-kerosene-precracked", "--T", "650 K", "--phi", "0.8", "--json")
+	out, err := runCmd(t, "pool", keroseneExample, "--fuel", "syn-kerosene-precracked", "--temperature", "650 K", "--phi", "0.8", "--json")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -91,10 +91,46 @@ func TestPoolCommandErrors(t *testing.T) {
 	if _, err := runCmd(t, "pool", keroseneExample, "--fuel", "jet-z"); err == nil || !strings.Contains(err.Error(), "the file defines") {
 		t.Errorf("unknown fuel: err = %v", err)
 	}
-	if _, err := runCmd(t, "pool", keroseneExample, "--T", "hot"); err == nil || !strings.Contains(err.Error(), "--T") {
+	if _, err := runCmd(t, "pool", keroseneExample, "--temperature", "hot"); err == nil || !strings.Contains(err.Error(), "--temperature") {
 		t.Errorf("bad temperature: err = %v", err)
 	}
 	if out, err := runCmd(t, "pool", "--help"); err != nil || !strings.Contains(out, "Examples:") {
 		t.Errorf("help: %v\n%s", err, out)
+	}
+}
+
+// A case file's [mixture] sets the inlet shown unless a flag overrides it:
+// examples/kerosene-compare.toml is at 450 K.
+func TestPoolCommandUsesCaseConditions(t *testing.T) {
+	example := filepath.Join("..", "..", "examples", "kerosene-compare.toml")
+	inlet := func(args ...string) (T, phi float64) {
+		t.Helper()
+		out, err := runCmd(t, append([]string{"pool", example, "--fuel", "surrogate", "--json"}, args...)...)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var doc struct {
+			Fuels []struct {
+				Inlet struct {
+					T   float64 `json:"unburned_temperature_K"`
+					Phi float64 `json:"equivalence_ratio"`
+				} `json:"inlet"`
+			} `json:"fuels"`
+		}
+		if err := json.Unmarshal([]byte(out), &doc); err != nil || len(doc.Fuels) != 1 {
+			t.Fatalf("%v\n%s", err, out)
+		}
+		return doc.Fuels[0].Inlet.T, doc.Fuels[0].Inlet.Phi
+	}
+	if T, phi := inlet(); T != 450 || phi != 1 {
+		t.Errorf("case conditions: %g K, phi %g; want 450 K, 1", T, phi)
+	}
+	if T, phi := inlet("--temperature", "500 K", "--phi", "0.7"); T != 500 || phi != 0.7 {
+		t.Errorf("flags: %g K, phi %g; want 500 K, 0.7", T, phi)
+	}
+	// A fuel file without [mixture]: 298.15 K.
+	out, err := runCmd(t, "pool", keroseneExample, "--fuel", "heptane")
+	if err != nil || !strings.Contains(out, "at 298.15 K") {
+		t.Errorf("fuel file default: %v\n%s", err, out)
 	}
 }

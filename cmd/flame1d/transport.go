@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"math"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -17,17 +16,17 @@ import (
 	"flame1d/units"
 )
 
-// transportRequest is what `flame1d transport` is asked to evaluate.
-type transportRequest struct {
-	Mechanism   string
-	X           string // "CH4:0.095,O2:0.19,N2:0.715"; or Fuel/Oxidizer/Phi
-	Fuel        string
-	Oxidizer    string
-	Phi         float64
-	Temperature string // with units, e.g. "300 K"
-	Pressure    string // with units, e.g. "1 atm"
-	MinFraction float64
-	All         bool
+// transportFlags are the flags of `flame1d transport`, as written.
+type transportFlags struct {
+	Mechanism     string
+	MoleFractions string // "CH4=0.095,O2=0.19,N2=0.715"; or Fuel/Oxidizer/Phi
+	Fuel          string
+	Oxidizer      string
+	Phi           float64
+	Temperature   string // with units, e.g. "300 K"
+	Pressure      string // with units, e.g. "1 atm"
+	MinFraction   float64
+	All           bool
 }
 
 // transportSpecies is one row of the per-species table.
@@ -60,7 +59,7 @@ const transportNote = "Mixture-averaged transport from kinetic theory (Chapman-E
 	"where they feed safety decisions, confirm them against local codes and licensed practice."
 
 func newTransportCmd() *cobra.Command {
-	req := transportRequest{}
+	fl := transportFlags{}
 	var asJSON bool
 	cmd := &cobra.Command{
 		Use:   "transport",
@@ -71,18 +70,22 @@ temperature and pressure: viscosity (Wilke), thermal conductivity
 diffusion coefficient D_km, the Lewis number lambda/(rho cp D_km) and the
 thermal diffusion ratio (light species only).
 
-Give the composition either as mole fractions, --X "CH4:0.095,O2:0.19,N2:0.715"
-(normalised), or as a premixed charge with --fuel, --oxidizer and --phi
-(O2-equivalent equivalence ratio). Temperatures and pressures take units
-("300 K", "25 C", "1 atm", "5 bar"); a bare number is K or Pa. Species below
---min-x are left out of the table unless --all is given.`,
+Give the composition either as mole fractions written as in a case file,
+--mole-fractions "CH4=0.095,O2=0.19,N2=0.715" (normalised), or as a premixed
+charge with --fuel, --oxidizer and --phi (O2-equivalent equivalence ratio).
+Temperatures and pressures take units ("300 K", "25 C", "1 atm", "5 bar"); a
+bare number is K or Pa. Species below --min-mole-fraction are left out of the
+table unless --all is given.`,
+		Example: `  flame1d transport --mole-fractions "O2=0.21,N2=0.79"
+  flame1d transport --fuel CH4 --phi 1 --temperature "600 K" --pressure "5 bar"
+  flame1d transport --fuel H2 --phi 0.5 --all --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			m, err := builtin.Load(req.Mechanism)
+			m, err := builtin.Load(fl.Mechanism)
 			if err != nil {
-				return err
+				return fmt.Errorf("--mechanism: %w", err)
 			}
-			rep, err := computeTransport(m, req)
+			rep, err := transportReportFor(m, fl)
 			if err != nil {
 				return err
 			}
@@ -93,134 +96,95 @@ Give the composition either as mole fractions, --X "CH4:0.095,O2:0.19,N2:0.715"
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&req.Mechanism, "mechanism", "smith1999-natgas", "built-in mechanism name or mechanism file (flame1d TOML)")
-	f.StringVar(&req.X, "X", "", `mole fractions, e.g. "CH4:0.095,O2:0.19,N2:0.715"`)
-	f.StringVar(&req.Fuel, "fuel", "", `fuel for a premixed charge, e.g. "CH4" or "CH4:0.9,C2H6:0.1"`)
-	f.StringVar(&req.Oxidizer, "oxidizer", "O2:0.21,N2:0.79", "oxidizer for a premixed charge (mole fractions)")
-	f.Float64Var(&req.Phi, "phi", 1, "equivalence ratio of the premixed charge")
-	f.StringVar(&req.Temperature, "T", "300 K", "temperature")
-	f.StringVar(&req.Pressure, "P", "1 atm", "pressure")
-	f.Float64Var(&req.MinFraction, "min-x", 1e-6, "smallest mole fraction listed in the species table")
-	f.BoolVar(&req.All, "all", false, "list every species")
+	f.StringVar(&fl.Mechanism, "mechanism", "smith1999-natgas", "built-in mechanism name or mechanism file (flame1d TOML)")
+	f.StringVar(&fl.MoleFractions, "mole-fractions", "", `mole fractions, e.g. "CH4=0.095,O2=0.19,N2=0.715"`)
+	f.StringVar(&fl.Fuel, "fuel", "", `fuel for a premixed charge, e.g. "CH4" or "CH4=0.9,C2H6=0.1"`)
+	f.StringVar(&fl.Oxidizer, "oxidizer", "O2=0.21,N2=0.79", "oxidizer for a premixed charge (mole fractions)")
+	f.Float64Var(&fl.Phi, "phi", 1, "equivalence ratio of the premixed charge")
+	f.StringVar(&fl.Temperature, "temperature", "300 K", "temperature")
+	f.StringVar(&fl.Pressure, "pressure", "1 atm", "pressure")
+	f.Float64Var(&fl.MinFraction, "min-mole-fraction", 1e-6, "smallest mole fraction listed in the species table")
+	f.BoolVar(&fl.All, "all", false, "list every species")
 	f.BoolVar(&asJSON, "json", false, "print JSON instead of text")
 	return cmd
 }
 
-// transportComposition returns the mole fractions the request asks for.
-func transportComposition(m *chem.Mechanism, set *thermo.SpeciesSet, req transportRequest) ([]float64, error) {
-	hasX, hasFuel := strings.TrimSpace(req.X) != "", strings.TrimSpace(req.Fuel) != ""
+// transportComposition returns the mole fractions the flags ask for.
+func transportComposition(m *chem.Mechanism, set *thermo.SpeciesSet, fl transportFlags) ([]float64, error) {
+	hasX, hasFuel := strings.TrimSpace(fl.MoleFractions) != "", strings.TrimSpace(fl.Fuel) != ""
 	switch {
 	case hasX && hasFuel:
-		return nil, errors.New("give either --X or --fuel (with --oxidizer, --phi), not both")
+		return nil, errors.New("give either --mole-fractions or --fuel (with --oxidizer, --phi), not both")
 	case hasFuel:
-		fuelX, err := parseComposition(req.Fuel)
+		fuelX, err := compositionFlag("fuel", fl.Fuel)
 		if err != nil {
-			return nil, fmt.Errorf("--fuel: %w", err)
+			return nil, err
 		}
-		oxX, err := parseComposition(req.Oxidizer)
+		oxX, err := compositionFlag("oxidizer", fl.Oxidizer)
 		if err != nil {
-			return nil, fmt.Errorf("--oxidizer: %w", err)
+			return nil, err
 		}
-		charge, err := fuel.Premixed(m, set, fuelX, oxX, req.Phi)
+		charge, err := fuel.Premixed(m, set, fuelX, oxX, fl.Phi)
 		if err != nil {
 			return nil, err
 		}
 		return charge.X, nil
 	case hasX:
-		c, err := parseComposition(req.X)
+		c, err := compositionFlag("mole-fractions", fl.MoleFractions)
 		if err != nil {
-			return nil, fmt.Errorf("--X: %w", err)
+			return nil, err
 		}
-		X := make([]float64, len(m.Species))
-		sum := 0.0
-		for name, v := range c {
-			k := m.SpeciesIndex(name)
-			if k < 0 {
-				return nil, fmt.Errorf("--X: species %s is not in mechanism %s", name, m.Name)
-			}
-			X[k] = v
-			sum += v
-		}
-		if !(sum > 0) {
-			return nil, errors.New("--X: mole fractions sum to zero")
-		}
-		for k := range X {
-			X[k] /= sum
-		}
-		return X, nil
+		return fuel.MoleFractions(m, "--mole-fractions", c)
 	}
-	return nil, errors.New(`give the composition: --X "CH4:0.095,O2:0.19,N2:0.715" or --fuel CH4 --phi 1`)
+	return nil, errors.New(`give the composition: --mole-fractions "CH4=0.095,O2=0.19,N2=0.715" or --fuel CH4 --phi 1`)
 }
 
-func computeTransport(m *chem.Mechanism, req transportRequest) (*transportReport, error) {
-	T, err := units.Parse(req.Temperature, units.Temperature)
-	if err != nil {
-		return nil, fmt.Errorf("--T: %w", err)
-	}
-	P, err := units.Parse(req.Pressure, units.Pressure)
-	if err != nil {
-		return nil, fmt.Errorf("--P: %w", err)
-	}
-	if !(P > 0) || math.IsInf(P, 0) {
-		return nil, errors.New("--P: pressure must be positive")
-	}
-	if !(req.MinFraction >= 0 && req.MinFraction < 1) {
-		return nil, fmt.Errorf("--min-x: %g is not in [0, 1)", req.MinFraction)
-	}
-	tr, err := transport.New(m, transport.Options{})
+// transportReportFor converts the flags and evaluates the gas with
+// transport.Model.Properties.
+func transportReportFor(m *chem.Mechanism, fl transportFlags) (*transportReport, error) {
+	T, err := quantityFlag("temperature", fl.Temperature, units.Temperature)
 	if err != nil {
 		return nil, err
 	}
-	if tMin, tMax := tr.Range(); !(T >= tMin && T <= tMax) {
-		return nil, fmt.Errorf("--T: %g K is outside the transport fit range %g-%g K", T, tMin, tMax)
+	P, err := quantityFlag("pressure", fl.Pressure, units.Pressure)
+	if err != nil {
+		return nil, err
+	}
+	if err := fractionFlag("min-mole-fraction", fl.MinFraction); err != nil {
+		return nil, err
 	}
 	set, err := fuel.SpeciesSet(m)
 	if err != nil {
 		return nil, err
 	}
-	X, err := transportComposition(m, set, req)
+	X, err := transportComposition(m, set, fl)
 	if err != nil {
 		return nil, err
 	}
-	K := len(X)
-	Y := make([]float64, K)
-	set.MoleToMass(X, Y)
-	out := transport.MixtureProperties{Diffusion: make([]float64, K), ThermalDiffusionRatios: make([]float64, K)}
-	tr.Mixture(T, P, X, Y, &out)
-	cp := set.CpMass(T, Y)
-	rho := set.Density(P, T, Y)
+	tr, err := transport.New(m, transport.Options{})
+	if err != nil {
+		return nil, err
+	}
+	g, err := tr.Properties(set, T, P, X)
+	if err != nil {
+		return nil, err
+	}
 	rep := &transportReport{
-		Mechanism:    m.Name,
-		Temperature:  T,
-		Pressure:     P,
-		Composition:  map[string]float64{},
-		Viscosity:    out.Viscosity,
-		Conductivity: out.Conductivity,
-		Cp:           cp,
-		Density:      rho,
-		Prandtl:      out.Viscosity * cp / out.Conductivity,
-		FitError:     tr.MaxFitError(),
-		Note:         transportNote,
+		Mechanism: m.Name, Temperature: T, Pressure: P, Composition: map[string]float64{},
+		Viscosity: g.Viscosity, Conductivity: g.Conductivity, Cp: g.Cp, Density: g.Density, Prandtl: g.Prandtl,
+		FitError: tr.MaxFitError(), Note: transportNote,
 	}
 	for k, x := range X {
 		if x > 0 {
 			rep.Composition[m.Species[k].Name] = x
 		}
-		if !req.All && !(x >= req.MinFraction && x > 0) {
+		if !fl.All && !(x >= fl.MinFraction && x > 0) {
 			continue
 		}
 		rep.Species = append(rep.Species, transportSpecies{
-			Name:           m.Species[k].Name,
-			MoleFraction:   x,
-			Diffusion:      out.Diffusion[k],
-			Lewis:          out.Conductivity / (rho * cp * out.Diffusion[k]),
-			ThermalDiffRat: out.ThermalDiffusionRatios[k],
+			Name: m.Species[k].Name, MoleFraction: x, Diffusion: g.Diffusion[k], Lewis: g.Lewis[k],
+			ThermalDiffRat: g.ThermalDiffusionRatios[k],
 		})
-	}
-	for _, v := range []float64{rep.Viscosity, rep.Conductivity, rep.Cp, rep.Density} {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("transport properties at %g K, %g Pa are not finite", T, P)
-		}
 	}
 	return rep, nil
 }

@@ -1,6 +1,8 @@
-// Package tomlpos finds the source line of a TOML key, for error messages
-// about keys that decoded but are unknown or invalid (the TOML decoder
-// reports positions only for syntax errors).
+// Package tomlpos is flame1d's one way of decoding TOML with errors that
+// name file and line: Decode (syntax errors with the corrected line, no
+// panic escapes) and Line, the source line of a key, for messages about
+// keys that decoded but are unknown or invalid (the TOML decoder reports
+// positions only for syntax errors).
 package tomlpos
 
 import (
