@@ -93,6 +93,9 @@ type problem struct {
 	fixedT      []float64
 	thermalDiff bool
 	central     bool // central (instead of upwind) convective face values
+	// diffusionScale multiplies each species' diffusive flux before the
+	// correction flux (Settings.DiffusionScale); nil means 1 for all.
+	diffusionScale []float64
 	workers     []*worker
 	// During Jacobian evaluation: frozen reuses the midpoint transport
 	// properties of the base state and frozenChem its production rates.
@@ -270,6 +273,9 @@ func (p *problem) midpointFluxes(u []float64) {
 			sum := 0.0
 			for k := 0; k < K; k++ {
 				fl[k] = -rhoD[k]*(Xb[k]-Xa[k])/dx - rhoDT[k]*dTdx
+				if p.diffusionScale != nil {
+					fl[k] *= p.diffusionScale[k]
+				}
 				sum += fl[k]
 			}
 			for k := 0; k < K; k++ {

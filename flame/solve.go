@@ -42,6 +42,12 @@ type Settings struct {
 	RelTol, AbsTolY, AbsTolT float64
 	// MaxRefinements bounds the solve/refine cycles.
 	MaxRefinements int
+	// DiffusionScale, when non-nil, holds one multiplier per species of the
+	// mixture-averaged diffusion coefficient D_km (its thermal-diffusion flux
+	// included) before the correction velocity is applied: the parameter of
+	// the diffusion (Lewis-number) sensitivities. nil means 1 for every
+	// species.
+	DiffusionScale []float64
 	// Workers is the number of goroutines for residual evaluation (0 = all cores).
 	Workers int
 	// Progress receives stage messages; nil silences them.
@@ -154,6 +160,9 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	if err := s.checkInlet(in); err != nil {
 		return nil, err
 	}
+	if err := s.checkDiffusionScale(set); err != nil {
+		return nil, err
+	}
 	// The start-up profiles assume a flame speed of 0.4 m/s. Flames several
 	// times faster (hydrogen-rich) or slower (very lean or rich) can fail
 	// to find their mass flux from there: the start is retried with the
@@ -209,6 +218,9 @@ func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, e
 	start := time.Now()
 	set = withDefaults(set)
 	if err := s.checkInlet(in); err != nil {
+		return nil, err
+	}
+	if err := s.checkDiffusionScale(set); err != nil {
 		return nil, err
 	}
 	if err := s.compatible(prev); err != nil {
@@ -368,6 +380,7 @@ func (s *Solver) problemFor(sol *Solution, set Settings) *problem {
 	pr := newProblem(s.ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, set.Workers)
 	pr.anchor = indexOf(sol.X, sol.AnchorX)
 	pr.anchorT = sol.AnchorT
+	pr.diffusionScale = set.DiffusionScale
 	pr.mode = equationMode{energy: true, freeFlux: true}
 	return pr
 }
