@@ -47,3 +47,45 @@ func BenchmarkHydrogenAirFlame(b *testing.B) {
 func BenchmarkMethaneAirFlame(b *testing.B) {
 	benchmarkFlame(b, "smith1999-natgas", map[string]float64{"CH4": 1})
 }
+
+// benchmarkSensitivities times the adjoint sensitivities (every rate
+// constant, the diffusion of five species) of one converged flame; the
+// solve itself is outside the timer. Compare with the matching flame
+// benchmark: the target is at most 15% of the solve.
+func benchmarkSensitivities(b *testing.B, mech string, fuelX map[string]float64, diffusion []string) {
+	m := mechanism(b, mech)
+	s, err := flame.NewSolver(m)
+	if err != nil {
+		b.Fatal(err)
+	}
+	in := inlet(b, m, fuelX, 1.0, 298, thermo.OneAtmosphere)
+	sol, err := s.Solve(in, flame.DefaultSettings())
+	if err != nil {
+		b.Fatal(err)
+	}
+	var req flame.SensitivityRequest
+	for _, name := range diffusion {
+		req.DiffusionSpecies = append(req.DiffusionSpecies, m.SpeciesIndex(name))
+	}
+	var sens *flame.Sensitivity
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if sens, err = s.Sensitivities(sol, flame.DefaultSettings(), req); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(sol.Points()), "points")
+	b.ReportMetric(float64(sens.ResidualEvaluations), "residual-evals")
+	b.ReportMetric(float64(sol.Stats.ResidualEvaluations), "solve-residual-evals")
+	b.ReportMetric(float64(sol.Stats.JacobianEvaluations), "solve-jacobians")
+}
+
+// BenchmarkHydrogenAirSensitivities: the flame of BenchmarkHydrogenAirFlame.
+func BenchmarkHydrogenAirSensitivities(b *testing.B) {
+	benchmarkSensitivities(b, "burke2012-hydrogen", map[string]float64{"H2": 1}, []string{"H2", "H", "O2"})
+}
+
+// BenchmarkMethaneAirSensitivities: the flame of BenchmarkMethaneAirFlame.
+func BenchmarkMethaneAirSensitivities(b *testing.B) {
+	benchmarkSensitivities(b, "smith1999-natgas", map[string]float64{"CH4": 1}, []string{"CH4", "H", "H2", "O2"})
+}

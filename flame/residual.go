@@ -96,7 +96,11 @@ type problem struct {
 	// diffusionScale multiplies each species' diffusive flux before the
 	// correction flux (Settings.DiffusionScale); nil means 1 for all.
 	diffusionScale []float64
-	workers     []*worker
+	// midpointTransport, when non-nil, evaluates the properties of each
+	// midpoint with its own cache (the full-property Jacobian of the
+	// sensitivities, flame/adjoint.go).
+	midpointTransport []midpointTransport
+	workers           []*worker
 	// During Jacobian evaluation: frozen reuses the midpoint transport
 	// properties of the base state and frozenChem its production rates.
 	frozen, frozenChem bool
@@ -253,7 +257,11 @@ func (p *problem) midpointFluxes(u []float64) {
 				for k := 0; k < K; k++ {
 					w.xMid[k] = w.yMid[k] * wm * p.ph.invW[k]
 				}
-				w.tr.Mixture(Tm, p.pressure, w.xMid, w.yMid, &w.mix)
+				if p.midpointTransport != nil {
+					p.midpointTransport[j].mixture(Tm, p.pressure, w.xMid, w.yMid, &w.mix)
+				} else {
+					w.tr.Mixture(Tm, p.pressure, w.xMid, w.yMid, &w.mix)
+				}
 				rho := p.pressure * wm / (thermo.GasConstant * Tm)
 				p.lambda[j] = w.mix.Conductivity
 				for k := 0; k < K; k++ {
