@@ -119,3 +119,53 @@ func TestAdjointMethaneAir(t *testing.T) {
 		t.Errorf("largest positive coefficient belongs to %s, want H+O2<=>O+OH", eq)
 	}
 }
+
+// TestDiffusionSensitivities: the diffusion-scale coefficients of H2, H and
+// O2 in H2/air (Burke et al. 2012, phi = 1) equal central finite
+// differences (the species' diffusion coefficient scaled by 1 ± 1%, the
+// flame re-solved on the same grid) within 2%.
+func TestDiffusionSensitivities(t *testing.T) {
+	if testing.Short() {
+		t.Skip("flame solves")
+	}
+	m, s := solverFor(t, "burke2012-hydrogen")
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	set := tightSettings()
+	sol, err := s.Solve(in, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	species := []string{"H2", "H", "O2", "OH"}
+	var req flame.SensitivityRequest
+	for _, name := range species {
+		req.DiffusionSpecies = append(req.DiffusionSpecies, m.SpeciesIndex(name))
+	}
+	sens, err := s.Sensitivities(sol, set, req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, k := range req.DiffusionSpecies {
+		speed := func(f float64) float64 {
+			sc := set
+			sc.DiffusionScale = make([]float64, len(m.Species))
+			for j := range sc.DiffusionScale {
+				sc.DiffusionScale[j] = 1
+			}
+			sc.DiffusionScale[k] = f
+			p, err := s.SolveOnGrid(sol, in, sc)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return p.MassFlux()
+		}
+		fd := math.Log(speed(1.01)/speed(0.99)) / math.Log(1.01/0.99)
+		adj := sens.Diffusion[i].Value
+		t.Logf("D_%s: adjoint %+.5f, finite differences %+.5f", species[i], adj, fd)
+		if sens.Diffusion[i].Name != species[i] {
+			t.Errorf("coefficient %d is named %s, want %s", i, sens.Diffusion[i].Name, species[i])
+		}
+		if math.Abs(adj-fd) > 0.02*math.Abs(fd) {
+			t.Errorf("D_%s: adjoint %.5f, finite differences %.5f: more than 2%% apart", species[i], adj, fd)
+		}
+	}
+}

@@ -1,6 +1,7 @@
 package sensitivity
 
 import (
+	"errors"
 	"math"
 	"sort"
 )
@@ -67,3 +68,6 @@ func Compare(a, b *Analysis, n int) (*Comparison, error) {
 		MostDifferent: top(func(p Pair) float64 { return math.Abs(p.Difference()) }),
 	}, nil
 }
+
+// errNoSensitivity is returned by Compare when a side has no analysis.
+var errNoSensitivity = errors.New("compare sensitivities: a fuel has no sensitivity analysis")

@@ -1,7 +1,6 @@
 package sensitivity
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"os"
@@ -63,7 +62,7 @@ func ParseFactors(src []byte, name string, m *chem.Mechanism) (map[int]float64, 
 	out := map[int]float64{}
 	for _, key := range keys {
 		f := doc.Factors[key]
-		line := tomlpos.Line(src, toml.Key{"uncertainty_factors", key})
+		line := keyLine(src, key)
 		if !(f >= 1) || math.IsInf(f, 0) {
 			return nil, fmt.Errorf("uncertainty factors %s:%d: %q = %g: a factor is at least 1 (k within k/f ... k f at 2σ)", name, line, key, f)
 		}
@@ -86,8 +85,20 @@ func ParseFactors(src []byte, name string, m *chem.Mechanism) (map[int]float64, 
 	return out, nil
 }
 
+// keyLine returns the 1-based line on which a key of the factor table is
+// written (quoted or bare), 0 if not found. tomlpos.Line splits a line at
+// its first '=', which a quoted equation contains.
+func keyLine(src []byte, key string) int {
+	for i, l := range strings.Split(string(src), "\n") {
+		l = strings.TrimSpace(l)
+		for _, form := range []string{`"` + key + `"`, `'` + key + `'`, key} {
+			if rest, ok := strings.CutPrefix(l, form); ok && strings.HasPrefix(strings.TrimSpace(rest), "=") {
+				return i + 1
+			}
+		}
+	}
+	return 0
+}
+
 // equationKey is an equation with the spaces removed, for matching.
 func equationKey(eq string) string { return strings.ReplaceAll(eq, " ", "") }
-
-// errNoSensitivity is returned by Compare when a side has no analysis.
-var errNoSensitivity = errors.New("no sensitivity analysis")
