@@ -45,6 +45,8 @@ type Case struct {
 	Sweep  *SweepSettings // nil when the case has no [sweep] table
 	// Compare is the [compare] table (nil when absent).
 	Compare *CompareSettings
+	// Sensitivity is the [sensitivity] table (zero when absent: off).
+	Sensitivity SensitivitySettings
 }
 
 // CompareSettings mirror the [compare] table: which fuels, over which
@@ -139,6 +141,7 @@ type raw struct {
 		EquivalenceRatios []float64 `toml:"equivalence_ratios"`
 		ProfilePhi        *float64  `toml:"profile_equivalence_ratio"`
 	} `toml:"compare"`
+	Sensitivity *rawSensitivity `toml:"sensitivity"`
 }
 
 // FieldError is a problem with one key of a case file.
@@ -306,6 +309,9 @@ func Parse(src []byte, file string) (*Case, error) {
 		return nil, fe("solver.workers", "must be 0 (all cores) or positive")
 	}
 	c.Output.Directory = r.Output.Directory
+	if c.Sensitivity, err = parseSensitivity(r.Sensitivity, file, fe); err != nil {
+		return nil, err
+	}
 	if c.Sweep, err = parseSweep(r.Sweep, c, src, file); err != nil {
 		return nil, err
 	}

@@ -39,7 +39,13 @@ type FlameSummary struct {
 	Refinements          int                `json:"grid_refinements"`
 	WallTimeS            float64            `json:"wall_time_s"`
 	Zones                *flame.Zones       `json:"zones,omitempty"`
-	Note                 string             `json:"note"`
+	// FlameSpeedSigma and FlameSpeedBand are the 1σ rate-constant band
+	// (output.BandNote); Sensitivities the ten largest coefficients. Empty
+	// unless sensitivities were asked for.
+	FlameSpeedSigma float64            `json:"flame_speed_sigma_m_s,omitempty"`
+	FlameSpeedBand  string             `json:"flame_speed_band,omitempty"`
+	Sensitivities   []SensitivityEntry `json:"sensitivities_top10,omitempty"`
+	Note            string             `json:"note"`
 }
 
 // Check refuses summaries with non-finite numbers.
@@ -47,6 +53,7 @@ func (s *FlameSummary) Check() error {
 	for name, v := range map[string]float64{
 		"flame_speed_m_s": s.FlameSpeed, "burned_temperature_K": s.BurnedTemperature,
 		"adiabatic_temperature_K": s.AdiabaticTemperature, "thermal_thickness_m": s.ThermalThickness,
+		"flame_speed_sigma_m_s": s.FlameSpeedSigma,
 	} {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return fmt.Errorf("summary value %s is not a finite number", name)
@@ -128,6 +135,7 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 			fmt.Fprintf(&b, "  pyrolysis end to peak   %.4g mm (%.3g thermal thicknesses)\n", 1e3*z.SeparationM, z.SeparationThickness)
 		}
 	}
+	writeSensitivityText(&b, s)
 	fmt.Fprintf(&b, "  note                    %s\n", s.Note)
 	_, err := io.WriteString(w, b.String())
 	return err

@@ -21,6 +21,7 @@ import (
 	"flame1d/flame"
 	"flame1d/fuel"
 	"flame1d/output"
+	"flame1d/sensitivity"
 	"flame1d/thermo"
 )
 
@@ -36,6 +37,8 @@ type Study struct {
 	Set       *thermo.SpeciesSet
 	Solver    *flame.Solver
 	Settings  flame.Settings
+	// factors caches the rate-constant uncertainty factors (Sensitivity).
+	factors []float64
 }
 
 // Condition is one point of a study: equivalence ratio, unburned
@@ -54,6 +57,9 @@ type Result struct {
 	Solution  *flame.Solution
 	Profile   *flame.Profile
 	Summary   *output.FlameSummary
+	// Sensitivity holds the flame-speed sensitivities and the band when
+	// the case asks for them ([sensitivity] enabled), else nil.
+	Sensitivity *sensitivity.Analysis
 	// ColdStart is true when the flame was solved from the built-in start-up
 	// profiles: no start was given, or continuation from it failed and the
 	// solve fell back to a cold start.
@@ -265,7 +271,13 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 		JacobianEvaluations: sol.Stats.JacobianEvaluations, Refinements: sol.Stats.Refinements,
 		WallTimeS: sol.Stats.WallTime.Seconds(), Note: output.SafetyNote, Zones: zones,
 	}
-	return &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum, ColdStart: cold}, nil
+	res := &Result{Condition: c, Solution: sol, Profile: prof, Summary: sum, ColdStart: cold}
+	if cs.Sensitivity.Enabled {
+		if err := s.Sensitivity(res); err != nil {
+			return nil, err
+		}
+	}
+	return res, nil
 }
 
 // ReadRestart reads a restart file written by WriteFlame onto the study's
@@ -318,6 +330,11 @@ func writeFlame(dir string, r *Result, plot bool) error {
 			if err := output.FlamePlot(filepath.Join(dir, "flame"+ext), flameChart(r.Summary), r.Profile, r.Summary.Zones); err != nil {
 				return err
 			}
+		}
+	}
+	if r.Sensitivity != nil {
+		if err := writeSensitivity(dir, r, comments, plot); err != nil {
+			return err
 		}
 	}
 	if err := output.WriteFileAtomic(filepath.Join(dir, "summary.txt"), r.Summary.WriteText); err != nil {
