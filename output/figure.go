@@ -54,6 +54,9 @@ type Series struct {
 	// Dash selects the line pattern: 0 solid, 1 dashed, 2 dotted, 3
 	// dash-dot (e.g. one per fuel where colour marks the species).
 	Dash int
+	// YErr, when non-nil (line charts, one per point), draws a symmetric
+	// error bar of ±YErr at each point; zeros draw none.
+	YErr []float64
 }
 
 // Break marks a gap after the series' last point (a failed point lies
@@ -380,6 +383,9 @@ func addSeries(fp *figurePanel, i int, s Series) error {
 	}
 	sc.GlyphStyle = draw.GlyphStyle{Color: clr, Radius: markerRadius(len(xy)), Shape: plotutil.Shape(i)}
 	fp.plot.Add(sc)
+	if err := addErrorBars(fp.plot, xy, s, clr); err != nil {
+		return err
+	}
 	if s.Name != "" {
 		if first != nil {
 			fp.legend.Add(s.Name, first, sc)

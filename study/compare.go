@@ -100,12 +100,20 @@ func (c *Comparison) Table() [][]string {
 	rows := [][]string{{"fuel", "equivalence_ratio [-]", "S_L [m/s]", "S_L/S_L(" + c.Fuels[0] + ") [-]",
 		"T_adiabatic [K]", "T_burned [K]", "thermal_thickness [m]", "pyrolysis_end [m]", "heat_release_peak [m]",
 		"pyrolysis_to_peak [m]", "status"}}
+	withBand := c.hasBand()
+	if withBand {
+		rows[0] = append(rows[0], bandColumn)
+	}
 	f := output.FormatFloat
 	for _, name := range c.Fuels {
 		for i, phi := range c.Phis {
 			r := c.Results[name][i]
 			if r == nil {
-				rows = append(rows, []string{name, f(phi), "", "", "", "", "", "", "", "", "failed: " + oneLine(c.Errors[name][i])})
+				row := []string{name, f(phi), "", "", "", "", "", "", "", "", "failed: " + oneLine(c.Errors[name][i])}
+				if withBand {
+					row = append(row, "")
+				}
+				rows = append(rows, row)
 				continue
 			}
 			s := r.Summary
@@ -125,8 +133,12 @@ func (c *Comparison) Table() [][]string {
 			if s.Zones != nil && len(s.Zones.Pyrolysis) > 0 {
 				sep = f(s.Zones.SeparationM)
 			}
-			rows = append(rows, []string{name, f(phi), f(s.FlameSpeed), ratio, f(s.AdiabaticTemperature), f(s.BurnedTemperature),
-				f(s.ThermalThickness), pyEnd, f(s.Zones.Oxidation.PeakX), sep, "converged"})
+			row := []string{name, f(phi), f(s.FlameSpeed), ratio, f(s.AdiabaticTemperature), f(s.BurnedTemperature),
+				f(s.ThermalThickness), pyEnd, f(s.Zones.Oxidation.PeakX), sep, "converged"}
+			if withBand {
+				row = append(row, bandCell(r))
+			}
+			rows = append(rows, row)
 		}
 	}
 	return rows
@@ -162,6 +174,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			if r := c.Results[name][i]; r != nil {
 				s.X = append(s.X, c.Phis[i])
 				s.Y = append(s.Y, r.Summary.FlameSpeed)
+				s.YErr = append(s.YErr, r.Summary.FlameSpeedSigma)
 			} else {
 				s.Break() // a failed point: no line across it
 			}
@@ -173,6 +186,9 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 	if len(speed) > 0 {
 		chart := output.Chart{Title: "Laminar flame speed", Note: titled(cs.Title, condition),
 			XLabel: "equivalence ratio φ [-]", YLabel: "S_L [m/s]", YFromZero: true}
+		if c.hasBand() {
+			chart.Note += "; error bars: 1σ from rate constants"
+		}
 		if err := writeBoth(dir, "flame-speed", func(path string) error { return output.Lines(path, chart, speed) }); err != nil {
 			return err
 		}

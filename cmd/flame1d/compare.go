@@ -22,6 +22,7 @@ func newCompareCmd() *cobra.Command {
 		fuels  string
 		phis   string
 		quiet  bool
+		sens   bool
 	)
 	cmd := &cobra.Command{
 		Use:   "compare CASE.toml",
@@ -39,6 +40,11 @@ equivalence ratios, at the case's unburned temperature and pressure, and write:
                                heat-release peak, with temperature windows
   <fuel>/                      profile.csv, zones.csv, flame plot, summary of
                                each fuel at the profile condition
+  compare-sensitivity.csv      with --sensitivity: at the profile condition,
+                               the reactions that matter most for each fuel
+                               and those whose coefficients differ most from
+                               the reference; S_L carries its 1σ rate-constant
+                               band in the tables and error bars in the chart
 
 The first fuel is the reference (typically the surrogate used in CFD).
 Failed points are reported in the table with their reason, never as numbers.
@@ -81,6 +87,9 @@ Failed points are reported in the table with their reason, never as numbers.
 			if quiet {
 				progress = nil
 			}
+			if sens {
+				c.Sensitivity.Enabled = true
+			}
 			cmp, err := study.Compare(c, names, phiList, progress)
 			if err != nil {
 				return err
@@ -117,6 +126,9 @@ Failed points are reported in the table with their reason, never as numbers.
 				}
 			}
 			printCompare(cmd.OutOrStdout(), cmp)
+			if err := writeCompareSensitivity(cmd.OutOrStdout(), outDir, cmp, profilePhi, comments); err != nil {
+				return err
+			}
 			fmt.Fprintf(cmd.OutOrStdout(), "\nresults in %s\n%s\n", outDir, output.SafetyNote)
 			return nil
 		},
@@ -125,6 +137,7 @@ Failed points are reported in the table with their reason, never as numbers.
 	cmd.Flags().StringVar(&fuels, "fuels", "", "comma-separated fuel names (default: the [compare] table)")
 	cmd.Flags().StringVar(&phis, "phi", "", "comma-separated equivalence ratios (default: the [compare] table)")
 	cmd.Flags().BoolVarP(&quiet, "quiet", "q", false, "no progress messages on stderr")
+	cmd.Flags().BoolVar(&sens, "sensitivity", false, "also compute flame-speed sensitivities and rate-constant bands (as [sensitivity] enabled = true)")
 	return cmd
 }
 
@@ -158,7 +171,7 @@ func printCompare(w io.Writer, cmp *study.Comparison) {
 				}
 				py = fmt.Sprintf("%.3f", 1e3*end)
 			}
-			fmt.Fprintf(tw, "%s\t%g\t%.4f\t%s\t%.0f\t%s\t%.3f\tconverged\n", name, phi, s.FlameSpeed, ratio,
+			fmt.Fprintf(tw, "%s\t%g\t%s\t%s\t%.0f\t%s\t%.3f\tconverged\n", name, phi, speedWithBand(s), ratio,
 				s.AdiabaticTemperature, py, 1e3*s.Zones.Oxidation.PeakX)
 		}
 	}
