@@ -10,19 +10,19 @@ import (
 	"gonum.org/v1/plot/vg"
 )
 
-// addErrorBars draws ±s.YErr at the points xy of a line series.
-func addErrorBars(p *plot.Plot, xy plotter.XYs, s Series, col color.Color) error {
-	if s.YErr == nil {
-		return nil
-	}
-	if len(s.YErr) != len(xy) {
-		return fmt.Errorf("series %q has %d error bars for %d points", s.Name, len(s.YErr), len(xy))
+// ErrorBars returns symmetric vertical error bars of ±yerr[j] at the
+// points xy (the 1σ band of S_L on flame-speed charts), nil when every
+// yerr is zero. It refuses lengths that differ and values that are
+// negative or not finite.
+func ErrorBars(xy plotter.XYs, yerr []float64, col color.Color) (*plotter.YErrorBars, error) {
+	if len(yerr) != len(xy) {
+		return nil, fmt.Errorf("%d error bars for %d points", len(yerr), len(xy))
 	}
 	var pts plotter.XYs
 	var errs plotter.YErrors
-	for j, e := range s.YErr {
+	for j, e := range yerr {
 		if math.IsNaN(e) || math.IsInf(e, 0) || e < 0 {
-			return fmt.Errorf("series %q, point %d: error bar %g is not a finite non-negative number", s.Name, j+1, e)
+			return nil, fmt.Errorf("point %d: error bar %g is not a finite non-negative number", j+1, e)
 		}
 		if e > 0 {
 			pts = append(pts, xy[j])
@@ -30,17 +30,31 @@ func addErrorBars(p *plot.Plot, xy plotter.XYs, s Series, col color.Color) error
 		}
 	}
 	if len(pts) == 0 {
-		return nil
+		return nil, nil
 	}
 	eb, err := plotter.NewYErrorBars(struct {
 		plotter.XYs
 		plotter.YErrors
 	}{pts, errs})
 	if err != nil {
-		return err
+		return nil, err
 	}
 	eb.Color = col
 	eb.Width = vg.Points(1)
-	p.Add(eb)
+	return eb, nil
+}
+
+// addErrorBars draws s.YErr, when given, at the points xy of a line series.
+func addErrorBars(p *plot.Plot, xy plotter.XYs, s Series, col color.Color) error {
+	if s.YErr == nil {
+		return nil
+	}
+	eb, err := ErrorBars(xy, s.YErr, col)
+	if err != nil {
+		return fmt.Errorf("series %q: %w", s.Name, err)
+	}
+	if eb != nil {
+		p.Add(eb)
+	}
 	return nil
 }

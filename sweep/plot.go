@@ -88,6 +88,8 @@ func speedSeries(v Variable, values [3][]float64, plan *Plan, points []int, recs
 			}
 			s.X = append(s.X, plotValue(v, plan.Points[i].Condition))
 			s.Y = append(s.Y, r.FlameSpeed)
+			// The 1σ rate-constant band, when the sweep computed it.
+			s.YErr = append(s.YErr, r.FlameSpeedSigma)
 		}
 		if len(s.X) > 0 {
 			series = append(series, s)

@@ -42,7 +42,10 @@ type Record struct {
 	ContinuedFrom string    `json:"continued_from,omitempty"`
 	Attempts      []Attempt `json:"attempts"`
 
-	FlameSpeed           float64 `json:"flame_speed_m_s,omitempty"`
+	FlameSpeed float64 `json:"flame_speed_m_s,omitempty"`
+	// FlameSpeedSigma is the 1σ rate-constant band of S_L, m/s; 0 without
+	// sensitivities.
+	FlameSpeedSigma      float64 `json:"flame_speed_sigma_m_s,omitempty"`
 	BurnedTemperature    float64 `json:"burned_temperature_K,omitempty"`
 	AdiabaticTemperature float64 `json:"adiabatic_temperature_K,omitempty"`
 	ThermalThickness     float64 `json:"thermal_thickness_m,omitempty"`
@@ -83,7 +86,7 @@ func (r *Record) fill(res *study.Result) error {
 	}{
 		{"flame speed", s.FlameSpeed}, {"burned temperature", s.BurnedTemperature},
 		{"adiabatic temperature", s.AdiabaticTemperature}, {"thermal thickness", s.ThermalThickness},
-		{"peak heat-release position", s.PeakHeatReleaseX},
+		{"peak heat-release position", s.PeakHeatReleaseX}, {"flame-speed band", s.FlameSpeedSigma},
 	} {
 		if math.IsNaN(v.v) || math.IsInf(v.v, 0) {
 			return fmt.Errorf("the solved flame's %s is not a finite number (%g)", v.name, v.v)
@@ -95,6 +98,7 @@ func (r *Record) fill(res *study.Result) error {
 	r.FlameSpeed, r.BurnedTemperature, r.AdiabaticTemperature = s.FlameSpeed, s.BurnedTemperature, s.AdiabaticTemperature
 	r.ThermalThickness, r.PeakHeatReleaseX = s.ThermalThickness, s.PeakHeatReleaseX
 	r.GridPoints = s.GridPoints
+	r.FlameSpeedSigma = s.FlameSpeedSigma
 	return nil
 }
 

@@ -34,13 +34,16 @@ const (
 	ColNewtonIterations = "newton_iterations [-]"
 	ColWallTime         = "wall_time [s]"
 	ColReason           = "reason"
+	// ColFlameSpeedSigma is the 1σ band of S_L from the rate constants
+	// (package sensitivity); empty unless the case enables [sensitivity].
+	ColFlameSpeedSigma = "S_L_sigma_rate_constants [m/s]"
 )
 
 // Columns is the header of results.csv.
 var Columns = []string{
 	ColID, ColPhi, ColT, ColP, ColStatus,
 	ColFlameSpeed, ColBurnedT, ColAdiabaticT, ColThermalThickness, ColPeakHeatRelease, ColGridPoints,
-	ColContinuedFrom, ColNewtonIterations, ColWallTime, ColReason,
+	ColContinuedFrom, ColNewtonIterations, ColWallTime, ColReason, ColFlameSpeedSigma,
 }
 
 // ResultsName is the results table's file name in a sweep folder.
@@ -79,6 +82,9 @@ func rowOf(pt Point, rec *Record) []string {
 		row[5], row[6], row[7] = f(rec.FlameSpeed), f(rec.BurnedTemperature), f(rec.AdiabaticTemperature)
 		row[8], row[9], row[10] = f(rec.ThermalThickness), f(rec.PeakHeatReleaseX), strconv.Itoa(rec.GridPoints)
 		row[11], row[12] = rec.ContinuedFrom, strconv.Itoa(rec.NewtonIterations)
+		if rec.FlameSpeedSigma > 0 {
+			row[15] = f(rec.FlameSpeedSigma)
+		}
 	}
 	row[13] = strconv.FormatFloat(rec.WallTimeS, 'f', 3, 64)
 	row[14] = oneLine(rec.Reason)
