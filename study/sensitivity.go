@@ -25,7 +25,9 @@ const (
 // Sensitivity computes the flame-speed sensitivities of a solved flame
 // (every rate constant; the diffusion coefficients of the fuel species, the
 // pool species, H, H2 and O2; for a finite-rate pool the activation energy
-// of the global cracking step) and the rate-constant band, and records them
+// of the global cracking step; every pool yield, the element closure
+// re-applied at the same heating value) and the rate-constant band, and
+// records them
 // in the result and its summary.
 func (s *Study) Sensitivity(r *Result) error {
 	factors, err := s.uncertaintyFactors()
@@ -36,6 +38,9 @@ func (s *Study) Sensitivity(r *Result) error {
 	if s.Fuel.Kind == fuel.CrackedPool && s.Fuel.Mode == fuel.ModeFiniteRate {
 		// fuel.Resolve appends the global cracking step last.
 		req.ActivationEnergies = []int{len(s.Mechanism.Reactions) - 1}
+	}
+	if req.Perturbations, err = s.poolYieldPerturbations(r.Condition); err != nil {
+		return fmt.Errorf("%s (%v): pool-yield sensitivities: %w", s.Case.File, r.Condition, err)
 	}
 	sens, err := s.Solver.Sensitivities(r.Solution, s.Settings, req)
 	if err != nil {

@@ -39,6 +39,11 @@ type Study struct {
 	Settings  flame.Settings
 	// factors caches the rate-constant uncertainty factors (Sensitivity).
 	factors []float64
+	// spec, base and baseSet are the fuel as written and the mechanism it
+	// was resolved on, for the pool-yield sensitivities.
+	spec    *fuel.Spec
+	base    *chem.Mechanism
+	baseSet *thermo.SpeciesSet
 }
 
 // Condition is one point of a study: equivalence ratio, unburned
@@ -116,7 +121,8 @@ func NewForFuel(c *casefile.Case, mech *chem.Mechanism, spec fuel.Spec, progress
 	if err != nil {
 		return nil, err
 	}
-	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, Set: res.Set, Solver: solver, Settings: Settings(c, progress)}, nil
+	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, Set: res.Set, Solver: solver, Settings: Settings(c, progress),
+		spec: &spec, base: mech, baseSet: base}, nil
 }
 
 // Settings maps a case's [grid] and [solver] tables onto solver settings.
