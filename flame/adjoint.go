@@ -148,39 +148,8 @@ func (s *Solver) Sensitivities(sol *Solution, set Settings, req SensitivityReque
 		return nil, err
 	}
 
-	// Diffusion scales: the residual is linear in each species' scale once
-	// the properties are frozen, so doubling it gives dF/d ln s exactly.
-	if len(req.DiffusionSpecies) > 0 {
-		base := set.DiffusionScale
-		scale := make([]float64, K)
-		for k := range scale {
-			scale[k] = 1
-			if base != nil {
-				scale[k] = base[k]
-			}
-		}
-		pr.diffusionScale = scale
-		pr.frozen, pr.frozenChem = true, true
-		fp := make([]float64, len(u))
-		for _, k := range req.DiffusionSpecies {
-			if k < 0 || k >= K {
-				return nil, fmt.Errorf("sensitivities: diffusion species index %d outside 0-%d", k, K-1)
-			}
-			old := scale[k]
-			scale[k] = 2 * old
-			err := residual(u, fp)
-			scale[k] = old
-			if err != nil {
-				return nil, fmt.Errorf("sensitivities: residual with the diffusion of %s scaled: %w", ph.mech.Species[k].Name, err)
-			}
-			dm := 0.0
-			for i := range fp {
-				dm -= lambda[i] * (fp[i] - f0[i])
-			}
-			out.Diffusion = append(out.Diffusion, ParameterSensitivity{Index: k, Name: ph.mech.Species[k].Name, Value: dm / m})
-		}
-		pr.frozen, pr.frozenChem = false, false
-		pr.diffusionScale = base
+	if out.Diffusion, err = s.diffusionSensitivities(pr, set, u, f0, lambda, m, req.DiffusionSpecies, residual); err != nil {
+		return nil, err
 	}
 
 	for _, pt := range req.Perturbations {
@@ -467,4 +436,51 @@ func (m *midpointTransport) mixture(T, P float64, X, Y []float64, out *transport
 	if out.ThermalDiffusionRatios != nil {
 		copy(out.ThermalDiffusionRatios, m.mix.ThermalDiffusionRatios)
 	}
+}
+
+// diffusionSensitivities returns d ln S_L/d ln s_k for the species listed,
+// s_k the multiplier of species k's diffusion coefficient. With the
+// transport properties and production rates frozen the residual is linear
+// in each s_k, so F(2 s_k) - F(s_k) is dF/d ln s_k exactly; f0 is F at the
+// solution u.
+func (s *Solver) diffusionSensitivities(pr *problem, set Settings, u, f0, lambda []float64, m float64, species []int,
+	residual func(u, f []float64) error) ([]ParameterSensitivity, error) {
+	if len(species) == 0 {
+		return nil, nil
+	}
+	ph := s.ph
+	K := ph.nSpecies
+	scale := make([]float64, K)
+	for k := range scale {
+		scale[k] = 1
+		if set.DiffusionScale != nil {
+			scale[k] = set.DiffusionScale[k]
+		}
+	}
+	pr.diffusionScale = scale
+	pr.frozen, pr.frozenChem = true, true
+	defer func() {
+		pr.frozen, pr.frozenChem = false, false
+		pr.diffusionScale = set.DiffusionScale
+	}()
+	fp := make([]float64, len(u))
+	var out []ParameterSensitivity
+	for _, k := range species {
+		if k < 0 || k >= K {
+			return nil, fmt.Errorf("sensitivities: diffusion species index %d outside 0-%d", k, K-1)
+		}
+		old := scale[k]
+		scale[k] = 2 * old
+		err := residual(u, fp)
+		scale[k] = old
+		if err != nil {
+			return nil, fmt.Errorf("sensitivities: residual with the diffusion of %s scaled: %w", ph.mech.Species[k].Name, err)
+		}
+		dm := 0.0
+		for i := range fp {
+			dm -= lambda[i] * (fp[i] - f0[i])
+		}
+		out = append(out, ParameterSensitivity{Index: k, Name: ph.mech.Species[k].Name, Value: dm / m})
+	}
+	return out, nil
 }
