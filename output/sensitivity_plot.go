@@ -77,10 +77,23 @@ func SensitivityBars(path string, c Chart, a *sensitivity.Analysis, n int) error
 func coefficientLabel(c sensitivity.Coefficient) string {
 	switch c.Kind {
 	case sensitivity.RateConstant:
-		return fmt.Sprintf("R%d %s", c.Reaction, c.Parameter)
+		return Shorten(fmt.Sprintf("R%d %s", c.Reaction, c.Parameter), maxLabelWidth)
 	case sensitivity.ActivationEnergy:
-		return fmt.Sprintf("E of R%d", c.Reaction)
+		return Shorten(fmt.Sprintf("E of R%d %s", c.Reaction, c.Parameter), maxLabelWidth)
 	default:
-		return fmt.Sprintf("%s %s", c.Kind, c.Parameter)
+		return Shorten(fmt.Sprintf("%s %s", c.Kind, c.Parameter), maxLabelWidth)
 	}
+}
+
+// maxLabelWidth is the longest axis label of the sensitivity chart, in
+// characters (a global cracking step lists its whole pool).
+const maxLabelWidth = 40
+
+// Shorten cuts s to at most width characters, marking the cut with "...".
+func Shorten(s string, width int) string {
+	r := []rune(s)
+	if len(r) <= width {
+		return s
+	}
+	return string(r[:width-3]) + "..."
 }

@@ -52,7 +52,7 @@ func writeCompareSensitivity(w io.Writer, dir string, cmp *study.Comparison, phi
 		}{{"matter most", c.MostImportant}, {"differ most", c.MostDifferent}} {
 			fmt.Fprintf(tw, "  reactions that %s\t%s\t%s\tdifference\n", l.title, c.Reference, c.Other)
 			for _, p := range l.pairs {
-				fmt.Fprintf(tw, "    %s\t%+.4f\t%+.4f\t%+.4f\n", shortEquation(p.Equation), p.A, p.B, p.Difference())
+				fmt.Fprintf(tw, "    %s\t%+.4f\t%+.4f\t%+.4f\n", output.Shorten(p.Equation, maxEquationWidth), p.A, p.B, p.Difference())
 			}
 		}
 		tw.Flush()
@@ -65,11 +65,3 @@ func writeCompareSensitivity(w io.Writer, dir string, cmp *study.Comparison, phi
 // ones (a global cracking step with its whole pool) are cut, the CSV keeps
 // them whole.
 const maxEquationWidth = 44
-
-func shortEquation(eq string) string {
-	r := []rune(eq)
-	if len(r) <= maxEquationWidth {
-		return eq
-	}
-	return string(r[:maxEquationWidth-3]) + "..."
-}
