@@ -10,11 +10,11 @@ import (
 	"gonum.org/v1/plot/vg"
 )
 
-// ErrorBars returns symmetric vertical error bars of ±yerr[j] at the
+// errorBars returns symmetric vertical error bars of ±yerr[j] at the
 // points xy (the 1σ band of S_L on flame-speed charts), nil when every
 // yerr is zero. It refuses lengths that differ and values that are
 // negative or not finite.
-func ErrorBars(xy plotter.XYs, yerr []float64, col color.Color) (*plotter.YErrorBars, error) {
+func errorBars(xy plotter.XYs, yerr []float64, col color.Color) (*plotter.YErrorBars, error) {
 	if len(yerr) != len(xy) {
 		return nil, fmt.Errorf("%d error bars for %d points", len(yerr), len(xy))
 	}
@@ -49,7 +49,7 @@ func addErrorBars(p *plot.Plot, xy plotter.XYs, s Series, col color.Color) error
 	if s.YErr == nil {
 		return nil
 	}
-	eb, err := ErrorBars(xy, s.YErr, col)
+	eb, err := errorBars(xy, s.YErr, col)
 	if err != nil {
 		return fmt.Errorf("series %q: %w", s.Name, err)
 	}

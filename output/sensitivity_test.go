@@ -59,11 +59,11 @@ func TestSensitivityOutputs(t *testing.T) {
 func TestErrorBarsRefuseBadValues(t *testing.T) {
 	xy := plotter.XYs{{X: 1, Y: 1}, {X: 2, Y: 2}}
 	for _, e := range [][]float64{{0.1}, {0.1, -1}, {math.NaN(), 0}} {
-		if _, err := ErrorBars(xy, e, SeriesColor(0)); err == nil {
+		if _, err := errorBars(xy, e, SeriesColor(0)); err == nil {
 			t.Errorf("error bars %v accepted", e)
 		}
 	}
-	if eb, err := ErrorBars(xy, []float64{0, 0}, SeriesColor(0)); eb != nil || err != nil {
+	if eb, err := errorBars(xy, []float64{0, 0}, SeriesColor(0)); eb != nil || err != nil {
 		t.Errorf("all-zero bars: %v, %v; want none", eb, err)
 	}
 }
