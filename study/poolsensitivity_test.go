@@ -33,10 +33,10 @@ func TestPoolYieldSensitivities(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, mode := range []string{fuel.ModePreCracked, fuel.ModeFiniteRate} {
-		spec := fuel.Spec{Name: "pool-" + mode, Formula: "C3H8", LowerHeatingValue: "46.35 MJ/kg", Mode: mode,
+		spec := fuel.Spec{Name: "pool-" + mode, Formula: "C3H8", LowerHeatingValue: 46.35e6, Mode: mode,
 			Cracking: fuel.CrackingSpec{Method: fuel.MethodYields, Yields: map[string]float64{"C2H4": 1, "CH4": 0.9}},
 			// C3H8 of GRI-Mech 3.0's transport file (from memory).
-			Transport: &fuel.TransportSpec{WellDepth: 266.8, Diameter: "4.982 Å"}}
+			Transport: &fuel.TransportSpec{WellDepth: 266.8, Diameter: 4.982e-10}}
 		st, err := NewForFuel(c, mech, spec, nil)
 		if err != nil {
 			t.Fatal(err)
