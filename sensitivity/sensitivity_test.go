@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"flame1d/builtin"
+	"flame1d/casefile"
 	"flame1d/sensitivity"
 )
 
@@ -28,22 +29,20 @@ func TestBandByHand(t *testing.T) {
 	}
 }
 
-// TestParseFactors: by equation (spaces ignored, duplicates all set), by
-// number, the mechanism's own factor, the default; errors name the line.
-func TestParseFactors(t *testing.T) {
+// TestMatchFactors: by equation (spaces ignored), by number, the
+// mechanism's own factor, the default; errors name the file and line.
+func TestMatchFactors(t *testing.T) {
 	m, err := builtin.Mechanism("burke2012-hydrogen")
 	if err != nil {
 		t.Fatal(err)
 	}
-	src := "# test\n[uncertainty_factors]\n\"H + O2 <=> O + OH\" = 1.3\n\"3\" = 5\n"
 	// Reaction 1 as the mechanism writes it, with spaces put around "+".
-	eq := m.Reactions[0].Equation
-	src = strings.Replace(src, "H + O2 <=> O + OH", strings.Join(strings.Split(eq, "+"), " + "), 1)
-	got, err := sensitivity.ParseFactors([]byte(src), "f.toml", m)
+	spaced := strings.Join(strings.Split(m.Reactions[0].Equation, "+"), " + ")
+	got, err := sensitivity.MatchFactors([]casefile.UncertaintyFactor{{Reaction: spaced, Factor: 1.3, Line: 3}, {Reaction: "3", Factor: 5, Line: 4}}, "f.toml", m)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if got[0] != 1.3 || got[2] != 5 || len(got) < 2 {
+	if got[0] != 1.3 || got[2] != 5 || len(got) != 2 {
 		t.Errorf("factors %v, want reaction 1 -> 1.3 and reaction 3 -> 5", got)
 	}
 	m.Reactions[4].UncertaintyFactor = 3
@@ -51,15 +50,17 @@ func TestParseFactors(t *testing.T) {
 	if f[0] != 1.3 || f[2] != 5 || f[4] != 3 || f[5] != sensitivity.DefaultUncertaintyFactor {
 		t.Errorf("Factors = %v", f[:6])
 	}
-	for _, bad := range []struct{ src, want string }{
-		{"[uncertainty_factors]\n\"X+Y=Z\" = 2\n", "f.toml:2: mechanism"},
-		{"[uncertainty_factors]\n\"1\" = 0.5\n", "f.toml:2: \"1\" = 0.5"},
-		{"[uncertainty_factors]\n\"999\" = 2\n", "f.toml:2: reaction number 999"},
-		{"[factors]\nx = 2\n", "unknown key"},
+	for _, bad := range []struct {
+		e    []casefile.UncertaintyFactor
+		want string
+	}{
+		{[]casefile.UncertaintyFactor{{Reaction: "X+Y=Z", Factor: 2, Line: 2}}, "f.toml:2: mechanism"},
+		{[]casefile.UncertaintyFactor{{Reaction: "999", Factor: 2, Line: 2}}, "f.toml:2: reaction number 999"},
+		{[]casefile.UncertaintyFactor{{Reaction: "1", Factor: 2, Line: 2}, {Reaction: spaced, Factor: 2, Line: 3}}, "f.toml:3: reaction 1"},
 	} {
-		_, err := sensitivity.ParseFactors([]byte(bad.src), "f.toml", m)
+		_, err := sensitivity.MatchFactors(bad.e, "f.toml", m)
 		if err == nil || !strings.Contains(err.Error(), bad.want) {
-			t.Errorf("%q: error %v, want one containing %q", bad.src, err, bad.want)
+			t.Errorf("%+v: error %v, want one containing %q", bad.e, err, bad.want)
 		}
 	}
 }

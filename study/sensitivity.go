@@ -66,8 +66,11 @@ func (s *Study) uncertaintyFactors() ([]float64, error) {
 	cs := s.Case.Sensitivity
 	var side map[int]float64
 	if cs.FactorsFile != "" {
-		var err error
-		if side, err = sensitivity.ReadFactors(cs.FactorsFile, s.Mechanism); err != nil {
+		entries, err := casefile.ReadUncertaintyFactors(cs.FactorsFile)
+		if err == nil {
+			side, err = sensitivity.MatchFactors(entries, cs.FactorsFile, s.Mechanism)
+		}
+		if err != nil {
 			return nil, fmt.Errorf("%s: [sensitivity] uncertainty_factors: %w", s.Case.File, err)
 		}
 	}
