@@ -83,9 +83,12 @@ type SolverSettings struct {
 	// CentralConvection selects central convective face values ("central",
 	// second order) instead of the default upwind ones ("upwind").
 	CentralConvection bool
-	RelativeTol       float64
-	AnchorRise        float64 // K above the unburned temperature
-	Workers           int
+	// Multicomponent selects multicomponent diffusion ("multicomponent")
+	// instead of the default mixture-averaged ("mixture-averaged").
+	Multicomponent bool
+	RelativeTol    float64
+	AnchorRise     float64 // K above the unburned temperature
+	Workers        int
 }
 
 // OutputSettings mirror the [output] table.
@@ -127,6 +130,7 @@ type raw struct {
 	Solver struct {
 		ThermalDiffusion *bool   `toml:"thermal_diffusion"`
 		Convection       string  `toml:"convection"`
+		Diffusion        string  `toml:"diffusion"`
 		RelativeTol      float64 `toml:"relative_tolerance"`
 		AnchorRise       float64 `toml:"anchor_rise"`
 		Workers          int     `toml:"workers"`
@@ -297,6 +301,13 @@ func Parse(src []byte, file string) (*Case, error) {
 		c.Solver.CentralConvection = true
 	default:
 		return nil, fe("solver.convection", "%q: use \"upwind\" (default, first order, robust) or \"central\" (second order)", s.Convection)
+	}
+	switch s.Diffusion {
+	case "", "mixture-averaged":
+	case "multicomponent":
+		c.Solver.Multicomponent = true
+	default:
+		return nil, fe("solver.diffusion", "%q: use \"mixture-averaged\" (default) or \"multicomponent\" (Stefan-Maxwell, 2-4 times the cost)", s.Diffusion)
 	}
 	c.Solver.AnchorRise = s.AnchorRise
 	if s.AnchorRise != 0 && !(s.AnchorRise >= 20 && s.AnchorRise <= 1500) {

@@ -32,6 +32,13 @@ func TestParseConvertsUnitsAndNormalises(t *testing.T) {
 	if c.Oxidizer["O2"] != 0.21 || c.Oxidizer["N2"] != 0.79 {
 		t.Errorf("default oxidizer %v, want air", c.Oxidizer)
 	}
+	if c.Solver.Multicomponent {
+		t.Errorf("diffusion defaults to multicomponent, want mixture-averaged")
+	}
+	c, err = Parse([]byte(minimal+"[solver]\ndiffusion = \"multicomponent\"\n"), "case.toml")
+	if err != nil || !c.Solver.Multicomponent {
+		t.Errorf("diffusion = \"multicomponent\": %v, Multicomponent = %v", err, c != nil && c.Solver.Multicomponent)
+	}
 }
 
 func TestNamedFuelsAndCompare(t *testing.T) {
@@ -68,6 +75,7 @@ func TestErrorsNameKeyAndLine(t *testing.T) {
 		{"negative phi", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = -1\n", "c.toml:3: mixture.equivalence_ratio"},
 		{"cold", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = 1\ntemperature = \"20 K\"\n", "outside 150-2000 K"},
 		{"syntax", "[mixture\nfuel = 1\n", "c.toml:1: TOML syntax"},
+		{"diffusion model", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = 1\n[solver]\ndiffusion = \"full\"\n", "c.toml:5: solver.diffusion: \"full\": use \"mixture-averaged\""},
 		{"one fuel compare", "[mixture]\nfuel = { CH4 = 1 }\nequivalence_ratio = 1\n[compare]\nequivalence_ratios = [1.0]\n", "at least two fuels"},
 	} {
 		_, err := Parse([]byte(tc.src), "c.toml")

@@ -1,6 +1,7 @@
 package flame
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -312,6 +313,9 @@ func (s *Solver) checkDiffusionScale(set Settings) error {
 	if set.DiffusionScale == nil {
 		return nil
 	}
+	if set.Diffusion == Multicomponent {
+		return errors.New("diffusion scales apply to mixture-averaged diffusion; solve with mixture-averaged diffusion")
+	}
 	if len(set.DiffusionScale) != s.ph.nSpecies {
 		return fmt.Errorf("diffusion scale has %d entries, mechanism %s has %d species", len(set.DiffusionScale), s.ph.mech.Name, s.ph.nSpecies)
 	}
@@ -447,6 +451,9 @@ func (s *Solver) diffusionSensitivities(pr *problem, set Settings, u, f0, lambda
 	residual func(u, f []float64) error) ([]ParameterSensitivity, error) {
 	if len(species) == 0 {
 		return nil, nil
+	}
+	if pr.multi != nil {
+		return nil, errors.New("sensitivities: diffusion sensitivities are defined for mixture-averaged diffusion; solve with mixture-averaged diffusion")
 	}
 	ph := s.ph
 	K := ph.nSpecies

@@ -92,6 +92,7 @@ func (s *Solver) ElementFluxes(sol *Solution, set Settings) (elements []string, 
 	K := ph.nSpecies
 	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
 	pr.central = set.CentralConvection
+	pr.setDiffusion(set.Diffusion)
 	if err := pr.pointProperties(sol.U); err != nil {
 		return nil, nil, err
 	}
@@ -135,6 +136,7 @@ func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, 
 	}
 	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
 	pr.central = set.CentralConvection
+	pr.setDiffusion(set.Diffusion)
 	if err := pr.pointProperties(sol.U); err != nil {
 		return nil, err
 	}

@@ -73,6 +73,7 @@ type worker struct {
 	xMid []float64
 	yMid []float64
 	mix  transport.MixtureProperties
+	mc   *multicomponentScratch // set with multicomponent diffusion
 }
 
 // problem is the discretised free flame on a fixed grid; it implements
@@ -93,6 +94,9 @@ type problem struct {
 	fixedT      []float64
 	thermalDiff bool
 	central     bool // central (instead of upwind) convective face values
+	// multi, when non-nil, selects multicomponent diffusion
+	// (diffusion_multicomponent.go).
+	multi *multicomponentFaces
 	// diffusionScale multiplies each species' diffusive flux before the
 	// correction flux (Settings.DiffusionScale); nil means 1 for all.
 	diffusionScale []float64
@@ -240,23 +244,17 @@ func (p *problem) midpointFluxes(u []float64) {
 	K := p.ph.nSpecies
 	p.parallel(p.n-1, func(w *worker, lo, hi int) {
 		for j := lo; j < hi; j++ {
+			if p.multi != nil {
+				p.multicomponentFlux(w, u, j)
+				continue
+			}
 			a, b := j*p.b, (j+1)*p.b
 			Ta, Tb := u[a+compT], u[b+compT]
 			dx := p.x[j+1] - p.x[j]
 			rhoD := p.rhoD[j*K : (j+1)*K]
 			rhoDT := p.rhoDT[j*K : (j+1)*K]
 			if !p.frozen {
-				Tm := 0.5 * (Ta + Tb)
-				sumYW := 0.0
-				for k := 0; k < K; k++ {
-					y := 0.5 * (u[a+1+k] + u[b+1+k])
-					w.yMid[k] = y
-					sumYW += y * p.ph.invW[k]
-				}
-				wm := 1 / sumYW
-				for k := 0; k < K; k++ {
-					w.xMid[k] = w.yMid[k] * wm * p.ph.invW[k]
-				}
+				Tm, wm := p.midpointState(w, u, j)
 				if p.midpointTransport != nil {
 					p.midpointTransport[j].mixture(Tm, p.pressure, w.xMid, w.yMid, &w.mix)
 				} else {
@@ -292,6 +290,25 @@ func (p *problem) midpointFluxes(u []float64) {
 			}
 		}
 	})
+}
+
+// midpointState sets w.yMid and w.xMid to the mean state of face j
+// (between points j and j+1) and returns its temperature, K, and mean molar
+// mass, kg/mol.
+func (p *problem) midpointState(w *worker, u []float64, j int) (T, wMean float64) {
+	K := p.ph.nSpecies
+	a, b := j*p.b, (j+1)*p.b
+	sumYW := 0.0
+	for k := 0; k < K; k++ {
+		y := 0.5 * (u[a+1+k] + u[b+1+k])
+		w.yMid[k] = y
+		sumYW += y * p.ph.invW[k]
+	}
+	wMean = 1 / sumYW
+	for k := 0; k < K; k++ {
+		w.xMid[k] = w.yMid[k] * wMean * p.ph.invW[k]
+	}
+	return 0.5 * (u[a+compT] + u[b+compT]), wMean
 }
 
 // Residual evaluates the discretised equations (see package doc). Signs are

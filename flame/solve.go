@@ -32,8 +32,13 @@ type Settings struct {
 	// AnchorRise is the temperature rise above the inlet, in K, at which the
 	// flame is pinned.
 	AnchorRise float64
-	// ThermalDiffusion adds the thermal-diffusion (Soret) flux of light species.
+	// ThermalDiffusion adds the thermal-diffusion (Soret) flux: of the light
+	// species with mixture-averaged diffusion, of every species with
+	// multicomponent diffusion.
 	ThermalDiffusion bool
+	// Diffusion selects the diffusive-flux model; the zero value is
+	// MixtureAveraged.
+	Diffusion DiffusionModel
 	// CentralConvection takes convective face values as the mean of the two
 	// neighbours (second order) instead of the upwind value (first
 	// order, the default, more robust on coarse grids).
@@ -378,6 +383,7 @@ func temperatures(sol *Solution) []float64 {
 
 func (s *Solver) problemFor(sol *Solution, set Settings) *problem {
 	pr := newProblem(s.ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, set.Workers)
+	pr.setDiffusion(set.Diffusion)
 	pr.anchor = indexOf(sol.X, sol.AnchorX)
 	pr.anchorT = sol.AnchorT
 	pr.diffusionScale = set.DiffusionScale

@@ -148,6 +148,9 @@ func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
 	s.DomainLength = g.DomainLength
 	s.ThermalDiffusion = c.Solver.ThermalDiffusion
 	s.CentralConvection = c.Solver.CentralConvection
+	if c.Solver.Multicomponent {
+		s.Diffusion = flame.Multicomponent
+	}
 	if c.Solver.RelativeTol > 0 {
 		s.RelTol = c.Solver.RelativeTol
 	}

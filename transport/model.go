@@ -78,6 +78,7 @@ type Model struct {
 	tdf     []float64 // len(light)*K, theta_kj of the light species
 	tPow    float64   // T^(3/2) at cachedT
 	x       []float64 // floored, renormalised mole fractions
+	mc      *mcWork   // multicomponent work space, made on first use
 }
 
 // fitted is the immutable part of a Model.
@@ -91,6 +92,10 @@ type fitted struct {
 	vCoef  []float64                      // K*(conductivityDegree+1)
 	dCoef  [][diffusionDegree + 1]float64 // K*(K-1)/2 pairs j<k in row order
 	tdCoef []float64                      // len(light)*K*(thermalDiffDegree+1), with mass factor
+
+	// Multicomponent model (multicomponent.go).
+	pairCoef []float64 // pairs j<k in row order: A*, B*, 6C*-5, each pairDegree+1
+	selfCoef []float64 // K*(diffusionDegree+1), T^(3/2)/(D_kk P)
 
 	// Wilke's Phi_kj = wilkeA[kj] (1 + alpha_k beta_j)^2 with
 	// alpha_k = sqrt(mu_k)/W_k^(1/4), beta_j = W_j^(1/4)/sqrt(mu_j).
@@ -128,6 +133,9 @@ func New(m *chem.Mechanism, opt Options) (*Model, error) {
 		}
 	}
 	if err := f.fitAll(); err != nil {
+		return nil, err
+	}
+	if err := f.fitMulticomponent(); err != nil {
 		return nil, err
 	}
 	f.wilkeFactors()
