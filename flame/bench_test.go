@@ -9,18 +9,20 @@ import (
 
 // benchmarkFlame solves one flame per iteration from a cold start and
 // reports the work split the solver measured.
-func benchmarkFlame(b *testing.B, mech string, fuelX map[string]float64) {
+func benchmarkFlame(b *testing.B, mech string, fuelX map[string]float64, diffusion flame.DiffusionModel) {
 	m := mechanism(b, mech)
 	s, err := flame.NewSolver(m)
 	if err != nil {
 		b.Fatal(err)
 	}
 	in := inlet(b, m, fuelX, 1.0, 298, thermo.OneAtmosphere)
+	set := flame.DefaultSettings()
+	set.Diffusion = diffusion
 	var st flame.Stats
 	var points int
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		sol, err := s.Solve(in, flame.DefaultSettings())
+		sol, err := s.Solve(in, set)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -39,13 +41,25 @@ func benchmarkFlame(b *testing.B, mech string, fuelX map[string]float64) {
 // BenchmarkHydrogenAirFlame: H2/air, phi = 1, 1 atm, 298 K, Burke et al.
 // (2012) mechanism. Target: median <= 0.5 s on a 2-core machine.
 func BenchmarkHydrogenAirFlame(b *testing.B) {
-	benchmarkFlame(b, "burke2012-hydrogen", map[string]float64{"H2": 1})
+	benchmarkFlame(b, "burke2012-hydrogen", map[string]float64{"H2": 1}, flame.MixtureAveraged)
+}
+
+// BenchmarkHydrogenAirFlameMulticomponent: as BenchmarkHydrogenAirFlame
+// with multicomponent diffusion. Target: <= 3 times BenchmarkHydrogenAirFlame.
+func BenchmarkHydrogenAirFlameMulticomponent(b *testing.B) {
+	benchmarkFlame(b, "burke2012-hydrogen", map[string]float64{"H2": 1}, flame.Multicomponent)
 }
 
 // BenchmarkMethaneAirFlame: CH4/air, phi = 1, 1 atm, 298 K, GRI-Mech 3.0,
 // to a grid-converged S_L at the default criteria. Target: median <= 3 s.
 func BenchmarkMethaneAirFlame(b *testing.B) {
-	benchmarkFlame(b, "smith1999-natgas", map[string]float64{"CH4": 1})
+	benchmarkFlame(b, "smith1999-natgas", map[string]float64{"CH4": 1}, flame.MixtureAveraged)
+}
+
+// BenchmarkMethaneAirFlameMulticomponent: as BenchmarkMethaneAirFlame with
+// multicomponent diffusion. Target: <= 4 times BenchmarkMethaneAirFlame.
+func BenchmarkMethaneAirFlameMulticomponent(b *testing.B) {
+	benchmarkFlame(b, "smith1999-natgas", map[string]float64{"CH4": 1}, flame.Multicomponent)
 }
 
 // benchmarkSensitivities times the adjoint sensitivities (every rate
