@@ -19,6 +19,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"sync"
 
 	"flame1d/chem"
 	"flame1d/thermo"
@@ -93,9 +94,10 @@ type fitted struct {
 	dCoef  [][diffusionDegree + 1]float64 // K*(K-1)/2 pairs j<k in row order
 	tdCoef []float64                      // len(light)*K*(thermalDiffDegree+1), with mass factor
 
-	// Multicomponent model (multicomponent.go).
-	pairCoef []float64 // pairs j<k in row order: A*, B*, 6C*-5, each pairDegree+1
-	selfCoef []float64 // K*(diffusionDegree+1), T^(3/2)/(D_kk P)
+	// Multicomponent fits (multicomponent.go), made on first use.
+	mcOnce sync.Once
+	mc     *multicomponentFits
+	mcErr  error
 
 	// Wilke's Phi_kj = wilkeA[kj] (1 + alpha_k beta_j)^2 with
 	// alpha_k = sqrt(mu_k)/W_k^(1/4), beta_j = W_j^(1/4)/sqrt(mu_j).
@@ -133,9 +135,6 @@ func New(m *chem.Mechanism, opt Options) (*Model, error) {
 		}
 	}
 	if err := f.fitAll(); err != nil {
-		return nil, err
-	}
-	if err := f.fitMulticomponent(); err != nil {
 		return nil, err
 	}
 	f.wilkeFactors()
@@ -383,7 +382,8 @@ func (t *Model) Clone() *Model { return newModel(t.fit) }
 // theory they replace, over all species viscosities and conductivities, pair
 // diffusion coefficients and thermal diffusion factors (the last relative to
 // their largest magnitude on the range), measured on a grid finer than the
-// fit nodes.
+// fit nodes. The fits of the multicomponent model are reported by
+// MulticomponentFitError.
 func (t *Model) MaxFitError() float64 { return t.fit.maxErr }
 
 // Range returns the fit range, K.

@@ -127,29 +127,63 @@ type mcWork struct {
 	sx      []float64 // sqrt(x_i)
 }
 
+// multicomponentFits are the fits only the multicomponent model needs. They
+// are made on first use (fitted.multicomponent), so that Models used only
+// for mixture-averaged properties are built as fast as before.
+type multicomponentFits struct {
+	pairCoef   []float64 // pairs j<k in row order: A*, B*, 6C*-5, each pairDegree+1
+	selfCoef   []float64 // K*(diffusionDegree+1), T^(3/2)/(D_kk P)
+	maxErr     float64   // largest fit error, as fitted.maxErr
+	maxErrWhat string
+}
+
+// multicomponent returns the multicomponent fits, making them on the first
+// call (safe for concurrent use by clones).
+func (f *fitted) multicomponent() (*multicomponentFits, error) {
+	f.mcOnce.Do(func() { f.mc, f.mcErr = f.fitMulticomponent() })
+	return f.mc, f.mcErr
+}
+
 // fitMulticomponent fits the pair ratios A*, B*, C* and the self-diffusion
 // coefficients over the fit range.
-func (f *fitted) fitMulticomponent() error {
+func (f *fitted) fitMulticomponent() (*multicomponentFits, error) {
 	K := len(f.species)
 	sc := f.scale
 	const n = pairDegree + 1
-	f.pairCoef = make([]float64, 0, K*(K-1)/2*3*n)
+	mc := &multicomponentFits{pairCoef: make([]float64, 0, K*(K-1)/2*3*n)}
+	note := func(what func() string, e float64) {
+		if e > mc.maxErr {
+			mc.maxErr, mc.maxErrWhat = e, what()
+		}
+	}
 	for j := 0; j < K; j++ {
 		for k := j + 1; k < K; k++ {
 			p := combine(&f.species[j], &f.species[k])
+			// The three ratios share their collision integrals: evaluate
+			// each node once.
+			seen := make(map[float64]collision, fitNodes+errorNodes)
+			at := func(u float64) collision {
+				c, ok := seen[u]
+				if !ok {
+					c = collisionIntegrals(sc.temperature(u)/p.eps, p.delta)
+					seen[u] = c
+				}
+				return c
+			}
 			for which := 0; which < 3; which++ {
 				fn := func(u float64) float64 {
-					c := collisionIntegrals(sc.temperature(u)/p.eps, p.delta)
+					c := at(u)
 					return [3]float64{c.A, c.B, 6*c.C - 5}[which]
 				}
 				c, err := fitPolynomial(pairDegree, fn)
 				if err != nil {
-					return fmt.Errorf("transport: fitting collision ratios %s-%s: %w", f.species[j].name, f.species[k].name, err)
+					return nil, fmt.Errorf("transport: fitting collision ratios %s-%s: %w", f.species[j].name, f.species[k].name, err)
 				}
 				// 6C* - 5 is small and may change sign: errors relative to 1.
-				f.note(fmt.Sprintf("collision ratio %d of %s-%s", which, f.species[j].name, f.species[k].name),
-					fitError(c, fn, func(fit, exact float64) float64 { return math.Abs(fit - exact) }))
-				f.pairCoef = append(f.pairCoef, c...)
+				note(func() string {
+					return fmt.Sprintf("collision ratio %d of %s-%s", which, f.species[j].name, f.species[k].name)
+				}, fitError(c, fn, func(fit, exact float64) float64 { return math.Abs(fit - exact) }))
+				mc.pairCoef = append(mc.pairCoef, c...)
 			}
 		}
 	}
@@ -162,17 +196,29 @@ func (f *fitted) fitMulticomponent() error {
 		}
 		c, err := fitPolynomial(diffusionDegree, fn)
 		if err != nil {
-			return fmt.Errorf("transport: fitting self-diffusion of %s: %w", s.name, err)
+			return nil, fmt.Errorf("transport: fitting self-diffusion of %s: %w", s.name, err)
 		}
-		f.note("self-diffusion "+s.name, fitError(c, fn, rel))
-		f.selfCoef = append(f.selfCoef, c...)
+		note(func() string { return "self-diffusion " + s.name }, fitError(c, fn, rel))
+		mc.selfCoef = append(mc.selfCoef, c...)
 	}
-	return nil
+	return mc, nil
+}
+
+// MulticomponentFitError returns the largest error of the fits the
+// multicomponent model adds (pair ratios A*, B*, 6C* - 5 absolute,
+// self-diffusion relative), and what it is; it makes the fits if
+// Multicomponent has not yet run.
+func (t *Model) MulticomponentFitError() (float64, string, error) {
+	mc, err := t.fit.multicomponent()
+	if err != nil {
+		return 0, "", err
+	}
+	return mc.maxErr, mc.maxErrWhat, nil
 }
 
 // multicomponentTemperature evaluates the pair ratios at the cached
 // temperature of t (setTemperature must have run).
-func (t *Model) multicomponentTemperature() {
+func (t *Model) multicomponentTemperature(mc *multicomponentFits) {
 	K := len(t.fit.species)
 	if t.mc == nil {
 		t.mc = &mcWork{
@@ -193,7 +239,7 @@ func (t *Model) multicomponentTemperature() {
 	i := 0
 	for j := 0; j < K; j++ {
 		for k := j + 1; k < K; k++ {
-			c := f.pairCoef[i*3*n : (i+1)*3*n]
+			c := mc.pairCoef[i*3*n : (i+1)*3*n]
 			i++
 			a, b, c6 := horner(c[:n], u), horner(c[n:2*n], u), horner(c[2*n:], u)
 			w.a[j*K+k], w.a[k*K+j] = a, a
@@ -203,15 +249,21 @@ func (t *Model) multicomponentTemperature() {
 	}
 	const nd = diffusionDegree + 1
 	for k := 0; k < K; k++ {
-		w.qSelf[k] = horner(f.selfCoef[k*nd:(k+1)*nd], u)
+		w.qSelf[k] = horner(mc.selfCoef[k*nd:(k+1)*nd], u)
 	}
 }
 
 // Multicomponent evaluates the multicomponent model at T, K, P, Pa, and
 // mole fractions X: it factorises the Stefan-Maxwell system into sm (unless
 // nil) and fills out (unless nil) with the conductivity and the thermal
-// diffusion ratios. Allocation-free after the first call.
+// diffusion ratios. Allocation-free after the first call; the first call
+// on a Model or any of its clones also makes the fits the model needs
+// (about three times the work of New).
 func (t *Model) Multicomponent(T, P float64, X []float64, sm *StefanMaxwell, out *MulticomponentProperties) error {
+	mc, err := t.fit.multicomponent()
+	if err != nil {
+		return err
+	}
 	t.setTemperature(T)
 	t.setComposition(X)
 	if sm != nil {
@@ -220,7 +272,7 @@ func (t *Model) Multicomponent(T, P float64, X []float64, sm *StefanMaxwell, out
 		}
 	}
 	if out != nil {
-		t.multicomponentTemperature()
+		t.multicomponentTemperature(mc)
 		return t.thermalSystem(P, out)
 	}
 	return nil

@@ -114,6 +114,21 @@ func TestMulticomponentConductivityPureSpecies(t *testing.T) {
 	}
 }
 
+// The multicomponent fits reproduce the collision-integral table to the
+// same design limit as the mixture-averaged ones (< 0.5%; the ratios A*, B*,
+// 6C* - 5 are of order 1 and measured absolutely).
+func TestMulticomponentFitError(t *testing.T) {
+	_, tr := natgas(t)
+	e, what, err := tr.MulticomponentFitError()
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("multicomponent fits: largest error %.3g (%s)", e, what)
+	if !(e > 0 && e < 0.005) {
+		t.Errorf("multicomponent fit error %.3g (%s), want 0 < e < 0.005", e, what)
+	}
+}
+
 // BenchmarkMulticomponent measures the multicomponent properties of
 // GRI-Mech 3.0 at one state (a new temperature each call): the factorised
 // Stefan-Maxwell system, the conductivity and every thermal diffusion
@@ -125,6 +140,9 @@ func BenchmarkMulticomponent(b *testing.B) {
 	sm := transport.NewStefanMaxwell(K)
 	out := transport.MulticomponentProperties{ThermalDiffusionRatios: make([]float64, K)}
 	T := [2]float64{1200, 1201}
+	if _, _, err := tr.MulticomponentFitError(); err != nil { // the fits, made once
+		b.Fatal(err)
+	}
 	b.ReportAllocs()
 	for i := 0; b.Loop(); i++ {
 		if err := tr.Multicomponent(T[i&1], 101325, X, sm, &out); err != nil {

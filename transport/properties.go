@@ -39,11 +39,16 @@ type GasProperties struct {
 	Diffusion              []float64
 	Lewis                  []float64
 	ThermalDiffusionRatios []float64
+	// The multicomponent model's conductivity (W/(m K)) and thermal
+	// diffusion ratios chi_k (every species), for comparison.
+	MulticomponentConductivity           float64
+	MulticomponentThermalDiffusionRatios []float64
 }
 
 // Properties evaluates the gas of mole fractions X at T (K) and P (Pa):
 // Wilke viscosity, Mathur-Tondon-Saxena conductivity, mixture diffusion
-// coefficients and thermal diffusion ratios from the model, cp and density
+// coefficients and thermal diffusion ratios from the model (and the
+// multicomponent conductivity and thermal diffusion ratios), cp and density
 // (ideal gas) from set, which must hold the model's species in its order.
 // It refuses a temperature outside the model's fit range and any state
 // whose properties are not finite. It allocates; it is for reports, not
@@ -63,18 +68,23 @@ func (t *Model) Properties(set *thermo.SpeciesSet, T, P float64, X []float64) (*
 	set.MoleToMass(X, Y)
 	out := MixtureProperties{Diffusion: make([]float64, K), ThermalDiffusionRatios: make([]float64, K)}
 	t.Mixture(T, P, X, Y, &out)
+	mc := MulticomponentProperties{ThermalDiffusionRatios: make([]float64, K)}
+	if err := t.Multicomponent(T, P, X, nil, &mc); err != nil {
+		return nil, err
+	}
 	g := &GasProperties{
 		Temperature: T, Pressure: P,
 		Viscosity: out.Viscosity, Conductivity: out.Conductivity,
 		Cp: set.CpMass(T, Y), Density: set.Density(P, T, Y),
 		MoleFractions: append([]float64(nil), X...), Diffusion: out.Diffusion,
 		Lewis: make([]float64, K), ThermalDiffusionRatios: out.ThermalDiffusionRatios,
+		MulticomponentConductivity: mc.Conductivity, MulticomponentThermalDiffusionRatios: mc.ThermalDiffusionRatios,
 	}
 	g.Prandtl = PrandtlNumber(g.Viscosity, g.Cp, g.Conductivity)
 	for k := range g.Lewis {
 		g.Lewis[k] = LewisNumber(g.Conductivity, g.Density, g.Cp, g.Diffusion[k])
 	}
-	for _, v := range []float64{g.Viscosity, g.Conductivity, g.Cp, g.Density, g.Prandtl} {
+	for _, v := range []float64{g.Viscosity, g.Conductivity, g.MulticomponentConductivity, g.Cp, g.Density, g.Prandtl} {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return nil, fmt.Errorf("transport properties at %g K, %g Pa are not finite", T, P)
 		}

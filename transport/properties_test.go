@@ -39,6 +39,13 @@ func TestPropertiesAir(t *testing.T) {
 	if math.Abs(g.Prandtl/0.707-1) > 0.04 {
 		t.Errorf("Pr(air, 300 K) = %.4f, want 0.707 within 4%%", g.Prandtl)
 	}
+	// Air at 300 K: 26.3 mW/(m K) (Incropera & DeWitt Table A.4, from
+	// memory); the mixture rule and the multicomponent model within 3%.
+	for _, lam := range []float64{g.Conductivity, g.MulticomponentConductivity} {
+		if math.Abs(lam/26.3e-3-1) > 0.03 {
+			t.Errorf("lambda(air, 300 K) = %.4g W/(m K), want 26.3e-3 within 3%%", lam)
+		}
+	}
 	if math.Abs(g.Density/1.177-1) > 0.005 {
 		t.Errorf("rho(air, 300 K) = %.4f kg/m^3, want 1.177", g.Density)
 	}

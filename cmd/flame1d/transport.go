@@ -36,6 +36,8 @@ type transportSpecies struct {
 	Diffusion      float64 `json:"mixture_diffusion_m2_s"`
 	Lewis          float64 `json:"lewis_number"`
 	ThermalDiffRat float64 `json:"thermal_diffusion_ratio"`
+	// MulticomponentThermalDiffRat is chi_k of the multicomponent model.
+	MulticomponentThermalDiffRat float64 `json:"multicomponent_thermal_diffusion_ratio"`
 }
 
 // transportReport is the result of `flame1d transport`. Field names carry units.
@@ -46,12 +48,14 @@ type transportReport struct {
 	Composition  map[string]float64 `json:"mole_fractions"`
 	Viscosity    float64            `json:"viscosity_Pa_s"`
 	Conductivity float64            `json:"thermal_conductivity_W_m_K"`
-	Cp           float64            `json:"cp_J_kg_K"`
-	Density      float64            `json:"density_kg_m3"`
-	Prandtl      float64            `json:"prandtl_number"`
-	FitError     float64            `json:"max_fit_error"`
-	Species      []transportSpecies `json:"species"`
-	Note         string             `json:"note"`
+	// MulticomponentConductivity is the conductivity of the multicomponent model.
+	MulticomponentConductivity float64            `json:"multicomponent_thermal_conductivity_W_m_K"`
+	Cp                         float64            `json:"cp_J_kg_K"`
+	Density                    float64            `json:"density_kg_m3"`
+	Prandtl                    float64            `json:"prandtl_number"`
+	FitError                   float64            `json:"max_fit_error"`
+	Species                    []transportSpecies `json:"species"`
+	Note                       string             `json:"note"`
 }
 
 const transportNote = "Mixture-averaged transport from kinetic theory (Chapman-Enskog, Wilke, " +
@@ -68,7 +72,10 @@ func newTransportCmd() *cobra.Command {
 temperature and pressure: viscosity (Wilke), thermal conductivity
 (Mathur-Tondon-Saxena), cp, density, Prandtl number, and per species the mixture
 diffusion coefficient D_km, the Lewis number lambda/(rho cp D_km) and the
-thermal diffusion ratio (light species only).
+thermal diffusion ratio (light species only). For comparison it also gives
+the multicomponent conductivity and thermal diffusion ratios chi (every
+species; docs/transport.md), the values [solver] diffusion = "multicomponent"
+uses.
 
 Give the composition either as mole fractions written as in a case file,
 --mole-fractions "CH4=0.095,O2=0.19,N2=0.715" (normalised), or as a premixed
@@ -171,7 +178,8 @@ func transportReportFor(m *chem.Mechanism, fl transportFlags) (*transportReport,
 	}
 	rep := &transportReport{
 		Mechanism: m.Name, Temperature: T, Pressure: P, Composition: map[string]float64{},
-		Viscosity: g.Viscosity, Conductivity: g.Conductivity, Cp: g.Cp, Density: g.Density, Prandtl: g.Prandtl,
+		Viscosity: g.Viscosity, Conductivity: g.Conductivity, MulticomponentConductivity: g.MulticomponentConductivity,
+		Cp: g.Cp, Density: g.Density, Prandtl: g.Prandtl,
 		FitError: tr.MaxFitError(), Note: transportNote,
 	}
 	for k, x := range X {
@@ -183,7 +191,8 @@ func transportReportFor(m *chem.Mechanism, fl transportFlags) (*transportReport,
 		}
 		rep.Species = append(rep.Species, transportSpecies{
 			Name: m.Species[k].Name, MoleFraction: x, Diffusion: g.Diffusion[k], Lewis: g.Lewis[k],
-			ThermalDiffRat: g.ThermalDiffusionRatios[k],
+			ThermalDiffRat:               g.ThermalDiffusionRatios[k],
+			MulticomponentThermalDiffRat: g.MulticomponentThermalDiffusionRatios[k],
 		})
 	}
 	return rep, nil
@@ -197,14 +206,14 @@ func (r *transportReport) writeText(w io.Writer) error {
 	fmt.Fprintf(&b, "pressure             %.6g Pa\n", r.Pressure)
 	fmt.Fprintf(&b, "composition          %s\n", compositionText(r.Composition))
 	fmt.Fprintf(&b, "viscosity            %.5g Pa s\n", r.Viscosity)
-	fmt.Fprintf(&b, "thermal conductivity %.5g W/(m K)\n", r.Conductivity)
+	fmt.Fprintf(&b, "thermal conductivity %.5g W/(m K) (multicomponent: %.5g)\n", r.Conductivity, r.MulticomponentConductivity)
 	fmt.Fprintf(&b, "cp                   %.5g J/(kg K)\n", r.Cp)
 	fmt.Fprintf(&b, "density              %.5g kg/m^3\n", r.Density)
 	fmt.Fprintf(&b, "Prandtl number       %.4f\n", r.Prandtl)
 	fmt.Fprintf(&b, "largest fit error    %.2g (relative, fits vs kinetic theory)\n\n", r.FitError)
-	fmt.Fprintf(&b, "%-12s %12s %14s %8s %12s\n", "species", "X [-]", "D_km [m^2/s]", "Le [-]", "Theta [-]")
+	fmt.Fprintf(&b, "%-12s %12s %14s %8s %12s %12s\n", "species", "X [-]", "D_km [m^2/s]", "Le [-]", "Theta [-]", "chi [-]")
 	for _, s := range r.Species {
-		fmt.Fprintf(&b, "%-12s %12.5g %14.5g %8.4f %12.4g\n", s.Name, s.MoleFraction, s.Diffusion, s.Lewis, s.ThermalDiffRat)
+		fmt.Fprintf(&b, "%-12s %12.5g %14.5g %8.4f %12.4g %12.4g\n", s.Name, s.MoleFraction, s.Diffusion, s.Lewis, s.ThermalDiffRat, s.MulticomponentThermalDiffRat)
 	}
 	_, err := io.WriteString(w, b.String())
 	return err
