@@ -109,8 +109,15 @@ func (s *StefanMaxwell) MolarFluxes(d, N []float64) {
 	K := s.k
 	copy(N[:K], d[:K])
 	N[s.drop] = 0
-	lapack64.Getrs(blas.NoTrans, blas64.General{Rows: K, Cols: K, Stride: K, Data: s.lu},
-		blas64.General{Rows: K, Cols: 1, Stride: 1, Data: N[:K]}, s.ipiv)
+	// P A = L U: apply the row interchanges, then two triangular solves
+	// (Getrs with one right-hand side goes through matrix-matrix kernels,
+	// many times slower for a single vector).
+	for i, p := range s.ipiv {
+		N[i], N[p] = N[p], N[i]
+	}
+	x := blas64.Vector{N: K, Inc: 1, Data: N[:K]}
+	blas64.Trsv(blas.NoTrans, blas64.Triangular{Uplo: blas.Lower, Diag: blas.Unit, N: K, Stride: K, Data: s.lu}, x)
+	blas64.Trsv(blas.NoTrans, blas64.Triangular{Uplo: blas.Upper, Diag: blas.NonUnit, N: K, Stride: K, Data: s.lu}, x)
 	for k := range N[:K] {
 		N[k] *= s.scale
 	}
@@ -367,7 +374,10 @@ func (t *Model) thermalSystem(P float64, out *MulticomponentProperties) error {
 	if !ok {
 		return fmt.Errorf("transport: thermal conduction system not positive definite at %g K", T)
 	}
-	lapack64.Potrs(tri, blas64.General{Rows: K, Cols: 1, Stride: 1, Data: z})
+	// U^T U z = rhs, by two triangular solves (see MolarFluxes).
+	zv := blas64.Vector{N: K, Inc: 1, Data: z}
+	blas64.Trsv(blas.Trans, tri, zv)
+	blas64.Trsv(blas.NoTrans, tri, zv)
 	lambdaTr := 0.0
 	for i := range z {
 		lambdaTr += sx[i] * z[i] / math.Sqrt(f.species[i].W)
