@@ -1,7 +1,6 @@
 package flame
 
 import (
-	"fmt"
 	"math"
 	"slices"
 
@@ -24,17 +23,6 @@ const (
 	// fluxes sum to zero by construction.
 	Multicomponent
 )
-
-// String returns the case-file name of the model.
-func (d DiffusionModel) String() string {
-	switch d {
-	case MixtureAveraged:
-		return "mixture-averaged"
-	case Multicomponent:
-		return "multicomponent"
-	}
-	return fmt.Sprintf("DiffusionModel(%d)", int(d))
-}
 
 // multicomponentFaces holds, for every cell face, the multicomponent
 // transport state that the frozen-property Jacobian reuses: the factorised

@@ -265,7 +265,7 @@ func (t *Model) multicomponentTemperature(mc *multicomponentFits) {
 // nil) and fills out (unless nil) with the conductivity and the thermal
 // diffusion ratios. Allocation-free after the first call; the first call
 // on a Model or any of its clones also makes the fits the model needs
-// (about three times the work of New).
+// (for GRI-Mech 3.0 about twice the work of New).
 func (t *Model) Multicomponent(T, P float64, X []float64, sm *StefanMaxwell, out *MulticomponentProperties) error {
 	mc, err := t.fit.multicomponent()
 	if err != nil {
