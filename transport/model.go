@@ -37,7 +37,6 @@ const (
 	viscosityDegree    = 4 // ln mu_k
 	conductivityDegree = 4 // h_k and v_k of the conductivity (see conductivityParts)
 	diffusionDegree    = 4 // T^(3/2)/(D_jk P)
-	thermalDiffDegree  = 8 // f_jk of the thermal diffusion ratios
 )
 
 // lightMolarMass is the molar mass below which a species gets a thermal
@@ -76,9 +75,10 @@ type Model struct {
 	beta    []float64 // W_k^(1/4)/sqrt(mu_k)
 	lambda  []float64 // species conductivities, W/(m K)
 	q       []float64 // K*K, T^(3/2)/(D_jk P) (diagonal zero)
-	tdf     []float64 // len(light)*K, theta_kj of the light species
+	tdf     []float64 // len(light)*K*3: A*, B*, 6C*-5 of the light species' pairs
 	tPow    float64   // T^(3/2) at cachedT
 	x       []float64 // floored, renormalised mole fractions
+	xb      []float64 // X_j b_j of thermalDiffusion
 	mc      *mcWork   // multicomponent work space, made on first use
 }
 
@@ -92,7 +92,7 @@ type fitted struct {
 	hCoef  []float64                      // K*(conductivityDegree+1)
 	vCoef  []float64                      // K*(conductivityDegree+1)
 	dCoef  [][diffusionDegree + 1]float64 // K*(K-1)/2 pairs j<k in row order
-	tdCoef []float64                      // len(light)*K*(thermalDiffDegree+1), with mass factor
+	tdCoef []float64                      // len(light)*K pairs: A*, B*, 6C*-5 (fitCollisionRatios)
 
 	// Multicomponent fits (multicomponent.go), made on first use.
 	mcOnce sync.Once
@@ -246,30 +246,11 @@ func (f *fitted) fitAll() error {
 	}
 	for _, k := range f.light {
 		for j := 0; j < K; j++ {
-			if j == k {
-				f.tdCoef = append(f.tdCoef, make([]float64, thermalDiffDegree+1)...)
-				continue
-			}
-			a, b := &f.species[k], &f.species[j]
-			p := combine(a, b)
-			massFactor := (a.W - b.W) / (a.W + b.W)
-			fn := func(u float64) float64 { return p.thermalDiffusionFactor(sc.temperature(u)) }
-			c, err := fitPolynomial(thermalDiffDegree, fn)
+			c, e, what, err := f.fitCollisionRatios(k, j)
 			if err != nil {
-				return fmt.Errorf("transport: fitting thermal diffusion %s-%s: %w", a.name, b.name, err)
+				return err
 			}
-			// f_kj may change sign at low T*: its error is measured against
-			// its largest magnitude over the range.
-			top := 0.0
-			for i := 0; i < errorNodes; i++ {
-				top = math.Max(top, math.Abs(fn(-1+2*float64(i)/float64(errorNodes-1))))
-			}
-			f.note("thermal diffusion "+a.name+"-"+b.name, fitError(c, fn, func(fit, exact float64) float64 {
-				return math.Abs(fit-exact) / top
-			}))
-			for i := range c {
-				c[i] *= massFactor
-			}
+			f.note(what, e)
 			f.tdCoef = append(f.tdCoef, c...)
 		}
 	}
@@ -369,8 +350,9 @@ func newModel(f *fitted) *Model {
 		beta:    make([]float64, K),
 		lambda:  make([]float64, K),
 		q:       make([]float64, K*K),
-		tdf:     make([]float64, len(f.light)*K),
+		tdf:     make([]float64, len(f.light)*K*3),
 		x:       make([]float64, K),
+		xb:      make([]float64, K),
 	}
 }
 
@@ -380,8 +362,8 @@ func (t *Model) Clone() *Model { return newModel(t.fit) }
 
 // MaxFitError returns the largest relative error of the fits against the
 // theory they replace, over all species viscosities and conductivities, pair
-// diffusion coefficients and thermal diffusion factors (the last relative to
-// their largest magnitude on the range), measured on a grid finer than the
+// diffusion coefficients and the collision ratios A*, B*, 6C* - 5 of the
+// light species' pairs (these absolute), measured on a grid finer than the
 // fit nodes. The fits of the multicomponent model are reported by
 // MulticomponentFitError.
 func (t *Model) MaxFitError() float64 { return t.fit.maxErr }
@@ -426,7 +408,7 @@ func (t *Model) setTemperature(T float64) {
 			t.q[k*K+j] = v
 		}
 	}
-	const nt = thermalDiffDegree + 1
+	const nt = pairDegree + 1
 	for i := range t.tdf {
 		t.tdf[i] = horner(f.tdCoef[i*nt:(i+1)*nt], u)
 	}
@@ -514,22 +496,61 @@ func (t *Model) mixtureDiffusion(P float64, D []float64) {
 	}
 }
 
-// thermalDiffusion fills theta with the thermal diffusion ratios from t.x:
-// for light species k, Theta_k = sum_{j != k} theta_kj X_k X_j with
-// theta_kj = f_kj (W_k - W_j)/(W_k + W_j); zero for the others.
+// thermalDiffusion fills theta with the thermal diffusion ratios of the
+// light species from t.x (zero for the others): the first-approximation
+// ratios of the multicomponent model (thermalSystem), with its S-S system
+// reduced to the diagonal for the light species and to the pure-gas
+// solution b_j = (3/2) eta_j/(P W_j^(1/2)) for the others:
+//
+//	S_ll  = X_l (5/2) P/eta_l + sum_{k != l} X_k 8 M_k g_lk (15/2 M_l^2 + 25/4 M_k^2 - 3 M_k^2 B* + 4 M_l M_k A*)
+//	b_l   = (15/4)/(W_l^(1/2) S_ll)
+//	Theta_l = (8/3) W_l^(1/2) sum_{j != l} g_lj (6C* - 5) (M_l^(3/2) M_j^(1/2) X_l X_j b_j - M_j^2 X_j X_l b_l)
+//
+// (M_l = W_l/(W_l + W_j) in each pair; P cancels and is set to 1). In the
+// mixtures of hydrogen flames this is within 2-6% of the full first
+// approximation, where the isotopic formula f_kj (W_k - W_j)/(W_k + W_j)
+// of Chapman & Cowling (1970, sec. 10.3), the usual mixture-averaged
+// choice, overstates it by 15-80% (docs/transport.md).
 func (t *Model) thermalDiffusion(theta []float64) {
+	f := t.fit
 	K := len(t.x)
+	x := t.x
 	_ = theta[K-1]
 	for k := range theta {
 		theta[k] = 0
 	}
-	for i, k := range t.fit.light {
-		row := t.tdf[i*K : (i+1)*K]
-		s := 0.0
-		for j, v := range row {
-			s += v * t.x[j]
+	gScale := 3 * thermo.GasConstant * t.cachedT / (16 * t.tPow) // g_ij = gScale q_ij/mu_ij at P = 1
+	// xb_j = X_j b_j: pure-gas values, replaced for the light species below.
+	xb := t.xb
+	for j := range xb {
+		xb[j] = 1.5 * x[j] * t.mu[j] / math.Sqrt(f.species[j].W)
+	}
+	for i, l := range f.light {
+		Wl := f.species[l].W
+		ratios := t.tdf[i*K*3 : (i+1)*K*3]
+		s := 2.5 * x[l] / t.mu[l]
+		for k := 0; k < K; k++ {
+			if k == l {
+				continue
+			}
+			ml, mk, g := t.pairMasses(l, k, gScale)
+			A, B := ratios[3*k], ratios[3*k+1]
+			s += x[k] * 8 * mk * g * (7.5*ml*ml + 6.25*mk*mk - 3*mk*mk*B + 4*ml*mk*A)
 		}
-		theta[k] = s * t.x[k]
+		xb[l] = 3.75 * x[l] / (math.Sqrt(Wl) * s)
+	}
+	for i, l := range f.light {
+		Wl := f.species[l].W
+		ratios := t.tdf[i*K*3 : (i+1)*K*3]
+		v := 0.0
+		for j := 0; j < K; j++ {
+			if j == l {
+				continue
+			}
+			ml, mj, g := t.pairMasses(l, j, gScale)
+			v += g * ratios[3*j+2] * (ml*math.Sqrt(ml*mj)*x[l]*xb[j] - mj*mj*x[j]*xb[l])
+		}
+		theta[l] = 8.0 / 3 * math.Sqrt(Wl) * v
 	}
 }
 
@@ -564,7 +585,7 @@ func (t *Model) MixtureDiffusion(T, P float64, X, Y []float64, D []float64) {
 // ThermalDiffusionRatios fills theta (len K) with the thermal diffusion
 // ratios Theta_k at T, K, and mole fractions X. They are non-zero only for
 // the light species (molar mass below 5 g/mol), from the first
-// approximation of Chapman-Enskog theory (see thermalDiffusionFactor). The
+// approximation of Chapman-Enskog theory (see thermalDiffusion). The
 // sign convention is that of the thermal diffusion velocity
 // V_k^T = -(D_km Theta_k/X_k) (1/T) dT/dx: light species have Theta_k < 0
 // and move towards the hot side.

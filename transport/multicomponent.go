@@ -151,6 +151,45 @@ func (f *fitted) multicomponent() (*multicomponentFits, error) {
 	return f.mc, f.mcErr
 }
 
+// fitCollisionRatios returns the fits of A*, B* and 6C* - 5 of the pair
+// (j, k) over the fit range, each pairDegree+1 coefficients, with the
+// largest fit error and what it is (absolute: the ratios are of order 1 and
+// 6C* - 5 may change sign). j == k gives zeros.
+func (f *fitted) fitCollisionRatios(j, k int) (coef []float64, worst float64, what string, err error) {
+	const n = pairDegree + 1
+	out := make([]float64, 0, 3*n)
+	if j == k {
+		return append(out, make([]float64, 3*n)...), 0, "", nil
+	}
+	p := combine(&f.species[j], &f.species[k])
+	// The three ratios share their collision integrals: evaluate each node
+	// once.
+	seen := make(map[float64]collision, fitNodes+errorNodes)
+	at := func(u float64) collision {
+		c, ok := seen[u]
+		if !ok {
+			c = collisionIntegrals(f.scale.temperature(u)/p.eps, p.delta)
+			seen[u] = c
+		}
+		return c
+	}
+	for which := 0; which < 3; which++ {
+		fn := func(u float64) float64 {
+			c := at(u)
+			return [3]float64{c.A, c.B, 6*c.C - 5}[which]
+		}
+		c, err := fitPolynomial(pairDegree, fn)
+		if err != nil {
+			return nil, 0, "", fmt.Errorf("transport: fitting collision ratios %s-%s: %w", f.species[j].name, f.species[k].name, err)
+		}
+		if e := fitError(c, fn, func(fit, exact float64) float64 { return math.Abs(fit - exact) }); e > worst {
+			worst, what = e, fmt.Sprintf("collision ratio %d of %s-%s", which, f.species[j].name, f.species[k].name)
+		}
+		out = append(out, c...)
+	}
+	return out, worst, what, nil
+}
+
 // fitMulticomponent fits the pair ratios A*, B*, C* and the self-diffusion
 // coefficients over the fit range.
 func (f *fitted) fitMulticomponent() (*multicomponentFits, error) {
@@ -158,40 +197,16 @@ func (f *fitted) fitMulticomponent() (*multicomponentFits, error) {
 	sc := f.scale
 	const n = pairDegree + 1
 	mc := &multicomponentFits{pairCoef: make([]float64, 0, K*(K-1)/2*3*n)}
-	note := func(what func() string, e float64) {
-		if e > mc.maxErr {
-			mc.maxErr, mc.maxErrWhat = e, what()
-		}
-	}
 	for j := 0; j < K; j++ {
 		for k := j + 1; k < K; k++ {
-			p := combine(&f.species[j], &f.species[k])
-			// The three ratios share their collision integrals: evaluate
-			// each node once.
-			seen := make(map[float64]collision, fitNodes+errorNodes)
-			at := func(u float64) collision {
-				c, ok := seen[u]
-				if !ok {
-					c = collisionIntegrals(sc.temperature(u)/p.eps, p.delta)
-					seen[u] = c
-				}
-				return c
+			c, e, what, err := f.fitCollisionRatios(j, k)
+			if err != nil {
+				return nil, err
 			}
-			for which := 0; which < 3; which++ {
-				fn := func(u float64) float64 {
-					c := at(u)
-					return [3]float64{c.A, c.B, 6*c.C - 5}[which]
-				}
-				c, err := fitPolynomial(pairDegree, fn)
-				if err != nil {
-					return nil, fmt.Errorf("transport: fitting collision ratios %s-%s: %w", f.species[j].name, f.species[k].name, err)
-				}
-				// 6C* - 5 is small and may change sign: errors relative to 1.
-				note(func() string {
-					return fmt.Sprintf("collision ratio %d of %s-%s", which, f.species[j].name, f.species[k].name)
-				}, fitError(c, fn, func(fit, exact float64) float64 { return math.Abs(fit - exact) }))
-				mc.pairCoef = append(mc.pairCoef, c...)
+			if e > mc.maxErr {
+				mc.maxErr, mc.maxErrWhat = e, what
 			}
+			mc.pairCoef = append(mc.pairCoef, c...)
 		}
 	}
 	for k := range f.species {
@@ -205,7 +220,9 @@ func (f *fitted) fitMulticomponent() (*multicomponentFits, error) {
 		if err != nil {
 			return nil, fmt.Errorf("transport: fitting self-diffusion of %s: %w", s.name, err)
 		}
-		note(func() string { return "self-diffusion " + s.name }, fitError(c, fn, rel))
+		if e := fitError(c, fn, rel); e > mc.maxErr {
+			mc.maxErr, mc.maxErrWhat = e, "self-diffusion "+s.name
+		}
 		mc.selfCoef = append(mc.selfCoef, c...)
 	}
 	return mc, nil
@@ -352,12 +369,8 @@ func (t *Model) thermalSystem(P float64, out *MulticomponentProperties) error {
 		s[i*K+i] = 2.5 * P / t.mu[i] * x[i]
 	}
 	for i := 0; i < K; i++ {
-		Wi := f.species[i].W
 		for j := i + 1; j < K; j++ {
-			Wj := f.species[j].W
-			mi := Wi / (Wi + Wj)
-			mj := 1 - mi
-			g := gScale * t.q[i*K+j] * (Wi + Wj) / (Wi * Wj)
+			mi, mj, g := t.pairMasses(i, j, gScale)
 			A, B := w.a[i*K+j], w.b[i*K+j]
 			s[i*K+i] += x[j] * 8 * mj * g * (7.5*mi*mi + 6.25*mj*mj - 3*mj*mj*B + 4*mi*mj*A)
 			s[j*K+j] += x[i] * 8 * mi * g * (7.5*mj*mj + 6.25*mi*mi - 3*mi*mi*B + 4*mi*mj*A)
@@ -404,21 +417,26 @@ func (t *Model) thermalSystem(P float64, out *MulticomponentProperties) error {
 	}
 	_ = chi[K-1]
 	for i := 0; i < K; i++ {
-		Wi := f.species[i].W
 		v := 0.0
 		for j := 0; j < K; j++ {
 			if j == i {
 				continue
 			}
-			Wj := f.species[j].W
-			mi := Wi / (Wi + Wj)
-			mj := 1 - mi
-			g := gScale * t.q[i*K+j] * (Wi + Wj) / (Wi * Wj)
+			mi, mj, g := t.pairMasses(i, j, gScale)
 			v += g * w.c[i*K+j] * (mi*math.Sqrt(mi*mj)*x[i]*sx[j]*z[j] - mj*mj*x[j]*sx[i]*z[i])
 		}
-		chi[i] = 8.0 / 3 * math.Sqrt(Wi) * v
+		chi[i] = 8.0 / 3 * math.Sqrt(f.species[i].W) * v
 	}
 	return nil
+}
+
+// pairMasses returns M_i = W_i/(W_i + W_j), M_j = 1 - M_i and the collision
+// frequency g_ij = gScale q_ij/mu_ij (mu_ij the reduced molar mass) of the
+// pair (i, j) at the cached temperature.
+func (t *Model) pairMasses(i, j int, gScale float64) (mi, mj, g float64) {
+	Wi, Wj := t.fit.species[i].W, t.fit.species[j].W
+	mi = Wi / (Wi + Wj)
+	return mi, 1 - mi, gScale * t.q[i*len(t.x)+j] * (Wi + Wj) / (Wi * Wj)
 }
 
 // MulticomponentDiffusion fills D (K*K, row-major, m^2/s) with the

@@ -52,8 +52,8 @@ func rigidSpheres(W, X []float64) (*Model, float64) {
 func TestThermalDiffusionLimits(t *testing.T) {
 	// Isotopic rigid spheres: k_T = (105/118) X1 X2 (W1 - W2)/(W1 + W2) to
 	// first order in the mass difference, at any composition (Chapman &
-	// Cowling 1970, sec. 10.3 (from memory); it is the mixture-averaged
-	// f_jk of thermalDiffusionFactor at A* = B* = C* = 1).
+	// Cowling 1970, sec. 10.3 (from memory): (15/2)(2A* + 5)(6C* - 5)/
+	// (A*(16A* - 12B* + 55)) at A* = B* = C* = 1).
 	for _, x1 := range []float64{0.1, 0.5, 0.9} {
 		W := []float64{0.0401, 0.0400}
 		m, P := rigidSpheres(W, []float64{x1, 1 - x1})

@@ -42,3 +42,18 @@ func index(t testing.TB, m *chem.Mechanism, name string) int {
 	}
 	return k
 }
+
+// hydrogen returns the built-in Burke et al. (2012) H2/O2 mechanism (its
+// species include He, Ar, N2, CO and CO2) and a Model on the default range.
+func hydrogen(t testing.TB) (*chem.Mechanism, *transport.Model) {
+	t.Helper()
+	m, err := builtin.Mechanism("burke2012-hydrogen")
+	if err != nil {
+		t.Fatal(err)
+	}
+	tr, err := transport.New(m, transport.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m, tr
+}

@@ -160,16 +160,3 @@ func (s *molecule) conductivityParts(T float64) (mu, h, v float64) {
 	// cv_vib/R = cp/R - 1 - cv_trans/R - cv_rot/R
 	return mu, fTrans*cvTrans + fRot*cvRot - fVib*(1+cvTrans+cvRot), fVib
 }
-
-// thermalDiffusionFactor returns the reduced first-approximation thermal
-// diffusion factor of a pair (Chapman & Cowling, The Mathematical Theory of
-// Non-uniform Gases, 3rd ed. 1970, sec. 9.81 and 10.3; in this form Warnatz
-// 1982 and Paul & Warnatz, Proc. Combust. Inst. 27 (1998) 495):
-//
-//	f_jk = (15/2) (2A* + 5)(6C* - 5) / (A* (16A* - 12B* + 55))
-//
-// so that theta_jk = f_jk (W_j - W_k)/(W_j + W_k).
-func (p *pair) thermalDiffusionFactor(T float64) float64 {
-	c := collisionIntegrals(T/p.eps, p.delta)
-	return 7.5 * (2*c.A + 5) * (6*c.C - 5) / (c.A * (16*c.A - 12*c.B + 55))
-}
