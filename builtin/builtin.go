@@ -30,6 +30,7 @@ import (
 
 	"flame1d/chem"
 	"flame1d/chem/mechtoml"
+	"flame1d/internal/infile"
 )
 
 //go:embed mechanisms/*.toml
@@ -115,9 +116,9 @@ func Load(nameOrPath string) (*chem.Mechanism, error) {
 		return nil, fmt.Errorf("mechanism %s is a directory; give a .toml mechanism file or a built-in name (%s)",
 			nameOrPath, strings.Join(Names(), ", "))
 	}
-	data, err := os.ReadFile(nameOrPath)
+	data, err := infile.ReadFile(nameOrPath, infile.Mechanism)
 	if err != nil {
-		return nil, fmt.Errorf("mechanism %s: %w", nameOrPath, err)
+		return nil, err
 	}
 	if kw := keywordBlockStart(data); kw != "" {
 		return nil, fmt.Errorf("%s is a mechanism in the classic keyword-block format (it starts with %s); "+

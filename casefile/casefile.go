@@ -13,11 +13,12 @@ package casefile
 
 import (
 	"fmt"
-	"os"
 	"sort"
 	"strings"
 
 	"flame1d/fuel"
+	"flame1d/internal/infile"
+	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
 
@@ -166,9 +167,9 @@ func (e *FieldError) Error() string {
 
 // ReadFile parses and checks a case file.
 func ReadFile(path string) (*Case, error) {
-	src, err := os.ReadFile(path)
+	src, err := infile.ReadFile(path, infile.CaseFile)
 	if err != nil {
-		return nil, fmt.Errorf("case file: %w", err)
+		return nil, err
 	}
 	return Parse(src, path)
 }
@@ -342,7 +343,7 @@ func quantity(v any, d units.Dimension, def float64) (float64, error) {
 	case string:
 		return units.Parse(x, d)
 	default:
-		return 0, fmt.Errorf("expected a number or a string with units, got %T", v)
+		return 0, fmt.Errorf("expected a number or a string with units, got %s", tomlpos.TypeName(v))
 	}
 }
 
@@ -410,7 +411,7 @@ func (f *fuelField) UnmarshalTOML(v any) error {
 			}
 		}
 	default:
-		f.err = fmt.Errorf("expected mole fractions { CH4 = 1.0 } or a fuel name, got %T", v)
+		f.err = fmt.Errorf("expected mole fractions { CH4 = 1.0 } or a fuel name, got %s", tomlpos.TypeName(v))
 	}
 	return nil
 }

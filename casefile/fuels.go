@@ -2,7 +2,6 @@ package casefile
 
 import (
 	"fmt"
-	"os"
 	"sort"
 	"strconv"
 	"strings"
@@ -10,6 +9,7 @@ import (
 	"github.com/BurntSushi/toml"
 
 	"flame1d/fuel"
+	"flame1d/internal/infile"
 	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
@@ -214,9 +214,9 @@ func ParseFuels(src []byte, file string) (*FuelFile, error) {
 
 // ReadFuels reads the fuel definitions of a TOML file (see ParseFuels).
 func ReadFuels(path string) (*FuelFile, error) {
-	src, err := os.ReadFile(path)
+	src, err := infile.ReadFile(path, infile.FuelFile)
 	if err != nil {
-		return nil, fmt.Errorf("fuel file: %w", err)
+		return nil, err
 	}
 	return ParseFuels(src, path)
 }

@@ -2,13 +2,13 @@ package casefile
 
 import (
 	"fmt"
-	"os"
 	"path/filepath"
 	"strings"
 
 	"flame1d/chem/keyblock"
 	"flame1d/chem/mechtoml"
 	"flame1d/fuel"
+	"flame1d/internal/infile"
 	"flame1d/thermo"
 	"flame1d/units"
 )
@@ -139,9 +139,9 @@ func ParseStudy(src []byte, file string) (*Study, error) {
 
 // ReadStudy reads a study file from disk.
 func ReadStudy(path string) (*Study, error) {
-	src, err := os.ReadFile(path)
+	src, err := infile.ReadFile(path, infile.FuelFile)
 	if err != nil {
-		return nil, fmt.Errorf("study file: %w", err)
+		return nil, err
 	}
 	return ParseStudy(src, path)
 }
@@ -208,7 +208,7 @@ func readSpecies(path string) ([]thermo.Species, error) {
 		}
 		return sp, nil
 	}
-	f, err := os.Open(path)
+	f, err := infile.Open(path, infile.Mechanism)
 	if err != nil {
 		return nil, err
 	}

@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"flame1d/internal/tomlpos"
 	"flame1d/units"
 )
 
@@ -181,7 +182,7 @@ func (sv sweepVariable) scalar(v any) (float64, error) {
 			return 0, err
 		}
 	default:
-		return 0, fmt.Errorf("expected a number, a string with units, a list or a range table, got %s", tomlType(v))
+		return 0, fmt.Errorf("expected a number, a string with units, a list or a range table, got %s", tomlpos.TypeName(v))
 	}
 	if math.IsNaN(f) || math.IsInf(f, 0) {
 		return 0, fmt.Errorf("%v is not a finite number", v)
@@ -320,18 +321,4 @@ func RoundSignificant(v float64) float64 {
 		return v
 	}
 	return r
-}
-
-func tomlType(v any) string {
-	switch v.(type) {
-	case bool:
-		return "a boolean"
-	case map[string]any:
-		return "a table"
-	case []any:
-		return "a list"
-	case nil:
-		return "nothing"
-	}
-	return fmt.Sprintf("%T", v)
 }

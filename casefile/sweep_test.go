@@ -100,7 +100,7 @@ func TestSweepErrors(t *testing.T) {
 		{`pressure = { from = 0, to = 1e6, count = 3, spacing = "log" }`, "sweep.pressure", 8, "needs a positive from"},
 		{`pressure = { from = "1 atm", to = "10 atm", count = 3, spacing = "cubic" }`, "sweep.pressure", 8, "spacing must be"},
 		{`pressure = { from = "1 atm", to = "10 atm", count = 1 }`, "sweep.pressure", 8, "count = 1 needs from = to"},
-		{`pressure = true`, "sweep.pressure", 8, "got a boolean"},
+		{`pressure = true`, "sweep.pressure", 8, "got true or false"},
 		{`continue_along = "phi"`, "sweep.continue_along", 8, "not a swept variable"},
 		{`continue_along = "pressure"`, "sweep", 7, "sweeps nothing"},
 		{"equivalence_ratio = [1.0]\npressures = [1]", "sweep.pressures", 9, "unknown key"},

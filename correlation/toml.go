@@ -4,10 +4,10 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"strconv"
 	"strings"
 
+	"flame1d/internal/infile"
 	"flame1d/internal/tomlpos"
 )
 
@@ -102,9 +102,9 @@ type tomlFile struct {
 
 // ReadTOMLFile reads a correlation written by WriteTOML.
 func ReadTOMLFile(path string) (*Correlation, error) {
-	src, err := os.ReadFile(path)
+	src, err := infile.ReadFile(path, infile.Correlation)
 	if err != nil {
-		return nil, fmt.Errorf("correlation file: %w", err)
+		return nil, err
 	}
 	return ReadTOML(src, path)
 }

@@ -21,13 +21,23 @@ type Table struct {
 // FormatFloat renders a value at full precision (shortest round-trip form).
 func FormatFloat(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 
+// WriteComments writes header lines "# text", one per comment, each made
+// one bounded line by OneLine: a title with a line break cannot start a row
+// of its own.
+func WriteComments(w io.Writer, comments []string) error {
+	for _, c := range comments {
+		if _, err := fmt.Fprintf(w, "# %s\n", OneLine(c)); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
 // WriteCSV writes the table. It refuses NaN or Inf values: a result that is
 // not a number must never appear as one.
 func (t *Table) WriteCSV(w io.Writer) error {
-	for _, c := range t.Comments {
-		if _, err := fmt.Fprintf(w, "# %s\n", c); err != nil {
-			return err
-		}
+	if err := WriteComments(w, t.Comments); err != nil {
+		return err
 	}
 	cw := csv.NewWriter(w)
 	if err := cw.Write(t.Header); err != nil {

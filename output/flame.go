@@ -97,9 +97,9 @@ func (s *FlameSummary) WriteText(w io.Writer) error {
 	}
 	var b strings.Builder
 	if s.Title != "" {
-		fmt.Fprintf(&b, "%s\n", s.Title)
+		fmt.Fprintf(&b, "%s\n", OneLine(s.Title))
 	}
-	fmt.Fprintf(&b, "  mechanism               %s\n", s.Mechanism)
+	fmt.Fprintf(&b, "  mechanism               %s\n", OneLine(s.Mechanism))
 	if s.inlineFuel() {
 		fmt.Fprintf(&b, "  fuel                    %s\n", formatComposition(s.FuelComposition))
 	} else {
@@ -175,10 +175,8 @@ func ProfileTable(p *flame.Profile, comments []string) *Table {
 // WriteZonesCSV writes the zone diagnostics as a long table: one row per
 // zone or peak with its kind, species and positions.
 func WriteZonesCSV(w io.Writer, z *flame.Zones, comments []string) error {
-	for _, c := range comments {
-		if _, err := fmt.Fprintf(w, "# %s\n", c); err != nil {
-			return err
-		}
+	if err := WriteComments(w, comments); err != nil {
+		return err
 	}
 	cw := csv.NewWriter(w)
 	rows := [][]string{{"kind", "species", "start [m]", "end [m]", "peak [m]", "T_start [K]", "T_end [K]", "T_peak [K]", "peak_value", "residence_time [s]"}}

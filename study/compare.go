@@ -22,14 +22,21 @@ type Comparison struct {
 	Studies map[string]*Study
 }
 
-// Compare solves every fuel of the case's [compare] table (or the given
-// names) over the equivalence ratios, at the case's unburned temperature
+// Compare solves the named fuels (none: every [fuels.NAME] table of the
+// case) over the equivalence ratios, at the case's unburned temperature
 // and pressure. Each fuel walks its equivalence ratios outwards from the
 // one nearest stoichiometric, each flame starting from its neighbour.
 // Failed points are recorded, not fatal.
 func Compare(c *casefile.Case, fuels []string, phis []float64, progress io.Writer) (*Comparison, error) {
+	if len(fuels) == 0 {
+		// No [compare] table and no list: every fuel table of the case.
+		for _, f := range c.Fuels {
+			fuels = append(fuels, f.Name)
+		}
+	}
 	if len(fuels) < 2 {
-		return nil, fmt.Errorf("compare needs at least two fuels, got %d", len(fuels))
+		return nil, fmt.Errorf("%s: compare needs at least two fuels, got %d: define [fuels.NAME] tables (every one is compared by default), or name them in [compare] fuels or --fuels",
+			c.File, len(fuels))
 	}
 	if len(phis) == 0 {
 		return nil, fmt.Errorf("compare needs at least one equivalence ratio")

@@ -20,6 +20,7 @@ import (
 	"flame1d/chem"
 	"flame1d/flame"
 	"flame1d/fuel"
+	"flame1d/internal/infile"
 	"flame1d/output"
 	"flame1d/sensitivity"
 	"flame1d/thermo"
@@ -292,9 +293,9 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 // ReadRestart reads a restart file written by WriteFlame onto the study's
 // mechanism, for Solve's start argument.
 func (s *Study) ReadRestart(path string) (*flame.Solution, error) {
-	f, err := os.Open(path)
+	f, err := infile.Open(path, infile.Restart)
 	if err != nil {
-		return nil, fmt.Errorf("restart: %w", err)
+		return nil, err
 	}
 	defer f.Close()
 	return flame.ReadRestart(f, path, s.Mechanism)
@@ -302,9 +303,9 @@ func (s *Study) ReadRestart(path string) (*flame.Solution, error) {
 
 // WriteFlame writes a flame's result set into dir: profile.csv, zones.csv,
 // restart.csv (the state to continue from with `flame1d run --restart`),
-// the flame plot (flame.svg, flame.png), summary.txt and summary.json. Each
-// file is atomic; summary.json is written last, so its presence marks a
-// complete set.
+// the flame plot (flame.svg, flame.png), summary.txt and summary.json. dir
+// is normally the folder of an output.Set, which puts the files in place as
+// one set.
 func WriteFlame(dir string, r *Result) error { return writeFlame(dir, r, true) }
 
 // WriteFlameTables writes the result set without the flame plot: for

@@ -17,6 +17,7 @@ import (
 	"flame1d/casefile"
 	"flame1d/chem"
 	"flame1d/chem/mechtoml"
+	"flame1d/internal/infile"
 	"flame1d/output"
 )
 
@@ -178,7 +179,7 @@ var errNoManifest = errors.New("no sweep.json")
 // ReadManifest reads dir/sweep.json.
 func ReadManifest(dir string) (*Manifest, error) {
 	path := filepath.Join(dir, manifestName)
-	b, err := os.ReadFile(path)
+	b, err := infile.ReadFile(path, infile.Record)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, fmt.Errorf("%s: %w: not a sweep output folder, or its sweep never started", dir, errNoManifest)
 	}

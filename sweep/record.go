@@ -7,9 +7,9 @@ import (
 	"io"
 	"io/fs"
 	"math"
-	"os"
 	"path/filepath"
 
+	"flame1d/internal/infile"
 	"flame1d/output"
 	"flame1d/study"
 )
@@ -125,7 +125,7 @@ func readRecords(dir string, plan *Plan, points []int) (map[int]*Record, error) 
 	for _, i := range points {
 		pt := plan.Points[i]
 		path := filepath.Join(pointDir(dir, pt.ID), recordName)
-		b, err := os.ReadFile(path)
+		b, err := infile.ReadFile(path, infile.Record)
 		if errors.Is(err, fs.ErrNotExist) {
 			continue
 		}

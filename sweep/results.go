@@ -6,10 +6,10 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"strconv"
 	"strings"
 
+	"flame1d/internal/infile"
 	"flame1d/output"
 	"flame1d/study"
 )
@@ -114,10 +114,8 @@ func resultsComments(title string, d Definition) []string {
 
 // WriteCSV writes the table.
 func (t *Table) WriteCSV(w io.Writer) error {
-	for _, c := range t.Comments {
-		if _, err := fmt.Fprintf(w, "# %s\n", c); err != nil {
-			return err
-		}
+	if err := output.WriteComments(w, t.Comments); err != nil {
+		return err
 	}
 	cw := csv.NewWriter(w)
 	if err := cw.Write(Columns); err != nil {
@@ -138,9 +136,9 @@ func (t *Table) WriteCSV(w io.Writer) error {
 // ReadResults reads a results table written by a sweep or a merge. The
 // header must be exactly Columns.
 func ReadResults(path string) (*Table, error) {
-	f, err := os.Open(path)
+	f, err := infile.Open(path, infile.Results)
 	if err != nil {
-		return nil, fmt.Errorf("results table: %w", err)
+		return nil, err
 	}
 	defer f.Close()
 	t, err := readTable(f, path)

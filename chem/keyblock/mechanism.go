@@ -3,12 +3,12 @@ package keyblock
 import (
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 	"sort"
 	"strings"
 
 	"flame1d/chem"
+	"flame1d/internal/infile"
 )
 
 // ReadFiles imports a mechanism from its reactions file and, optionally, a
@@ -32,9 +32,9 @@ func ReadFiles(mechPath, thermoPath, transportPath string) (*chem.Mechanism, []c
 		if path == "" {
 			return nil, nil
 		}
-		f, err := os.Open(path)
+		f, err := infile.Open(path, infile.Mechanism)
 		if err != nil {
-			return nil, fmt.Errorf("opening mechanism input: %w", err)
+			return nil, err
 		}
 		closers = append(closers, f)
 		return f, nil

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"sort"
 	"strconv"
 	"strings"
@@ -12,6 +11,7 @@ import (
 
 	"flame1d/chem"
 	"flame1d/chem/internal/equation"
+	"flame1d/internal/infile"
 	"flame1d/internal/tomlpos"
 )
 
@@ -21,9 +21,9 @@ const FormatVersion = 1
 
 // ReadFile reads a mechanism file; see Read.
 func ReadFile(path string) (*chem.Mechanism, []chem.Problem, error) {
-	f, err := os.Open(path)
+	f, err := infile.Open(path, infile.Mechanism)
 	if err != nil {
-		return nil, nil, fmt.Errorf("mechanism file: %w", err)
+		return nil, nil, err
 	}
 	defer f.Close()
 	return Read(f, path)

@@ -97,8 +97,8 @@ Failed points are reported in the table with their reason, never as numbers.
 			rows := cmp.Table()
 			comments := []string{"flame1d fuel comparison: " + c.Title, output.SafetyNote}
 			err = output.WriteFileAtomic(filepath.Join(outDir, "compare.csv"), func(w io.Writer) error {
-				for _, cm := range comments {
-					fmt.Fprintf(w, "# %s\n", cm)
+				if err := output.WriteComments(w, comments); err != nil {
+					return err
 				}
 				cw := csv.NewWriter(w)
 				if err := cw.WriteAll(rows); err != nil {

@@ -16,6 +16,7 @@ import (
 	"flame1d/chem"
 	"flame1d/chem/keyblock"
 	"flame1d/chem/mechtoml"
+	"flame1d/internal/infile"
 )
 
 func newMechCmd() *cobra.Command {
@@ -102,7 +103,7 @@ func runMechImport(stdout, stderr io.Writer, o mechImportOptions) error {
 	}
 	var description string
 	if o.descriptionFile != "" {
-		b, err := os.ReadFile(o.descriptionFile)
+		b, err := infile.ReadFile(o.descriptionFile, infile.Text)
 		if err != nil {
 			return fmt.Errorf("--description-file: %w", err)
 		}
