@@ -15,6 +15,7 @@ import (
 	"fmt"
 	"sort"
 	"strings"
+	"unicode"
 
 	"flame1d/fuel"
 	"flame1d/internal/infile"
@@ -129,12 +130,12 @@ type raw struct {
 		DomainLength      any     `toml:"domain_length"`
 	} `toml:"grid"`
 	Solver struct {
-		ThermalDiffusion *bool   `toml:"thermal_diffusion"`
-		Convection       string  `toml:"convection"`
-		Diffusion        string  `toml:"diffusion"`
-		RelativeTol      float64 `toml:"relative_tolerance"`
-		AnchorRise       float64 `toml:"anchor_rise"`
-		Workers          int     `toml:"workers"`
+		ThermalDiffusion *bool    `toml:"thermal_diffusion"`
+		Convection       string   `toml:"convection"`
+		Diffusion        string   `toml:"diffusion"`
+		RelativeTol      *float64 `toml:"relative_tolerance"`
+		AnchorRise       float64  `toml:"anchor_rise"`
+		Workers          int      `toml:"workers"`
 	} `toml:"solver"`
 	Output struct {
 		Directory string `toml:"directory"`
@@ -183,6 +184,9 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 	fe := keyErrors(src, file)
 	c := &Case{File: file, Title: r.Title, Mechanism: r.Mechanism}
+	if err := checkText(r.Title, maxTitleBytes); err != nil {
+		return nil, fe("title", "%v", err)
+	}
 	if c.Mechanism == "" {
 		c.Mechanism = DefaultMechanism
 	}
@@ -192,6 +196,12 @@ func Parse(src []byte, file string) (*Case, error) {
 			spec, err := t.spec(k[1], fe)
 			if err != nil {
 				return nil, err
+			}
+			if err := checkText(spec.Name, maxNameBytes); err != nil {
+				return nil, fe(k.String(), "fuel name: %v", err)
+			}
+			if err := checkText(spec.Description, maxTitleBytes); err != nil {
+				return nil, fe(k.String()+".description", "%v", err)
 			}
 			c.Fuels = append(c.Fuels, spec)
 		}
@@ -234,7 +244,7 @@ func Parse(src []byte, file string) (*Case, error) {
 		}
 		for _, phi := range cmp.EquivalenceRatios {
 			if !(phi > 0 && phi < 100) {
-				return nil, fe("compare.equivalence_ratios", "equivalence ratios must be positive (got %g)", phi)
+				return nil, fe("compare.equivalence_ratios", "equivalence ratio %g: %s", phi, phiRange)
 			}
 		}
 		if !(cmp.ProfilePhi > 0) {
@@ -253,7 +263,7 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 	c.EquivalenceRatio = *r.Mixture.EquivalenceRatio
 	if !(c.EquivalenceRatio > 0 && c.EquivalenceRatio < 100) {
-		return nil, fe("mixture.equivalence_ratio", "must be positive (got %g)", c.EquivalenceRatio)
+		return nil, fe("mixture.equivalence_ratio", "%g: %s", c.EquivalenceRatio, phiRange)
 	}
 	if c.Temperature, err = quantity(r.Mixture.Temperature, units.Temperature, 298.15); err != nil {
 		return nil, fe("mixture.temperature", "%v", err)
@@ -279,12 +289,16 @@ func Parse(src []byte, file string) (*Case, error) {
 		msg string
 	}{
 		{"grid.initial_points", g.InitialPoints != 0 && g.InitialPoints < 8, "needs at least 8 points"},
+		{"grid.initial_points", g.InitialPoints > maxInitialPoints, fmt.Sprintf("%d points; at most %d (the grid refines itself; 40-100 is usual)", g.InitialPoints, maxInitialPoints)},
+		{"grid.max_points", g.MaxPoints > maxGridPoints, fmt.Sprintf("%d points; at most %d (a converged flame needs a few hundred to a few thousand)", g.MaxPoints, maxGridPoints)},
+		{"grid.initial_points", g.InitialPoints != 0 && g.MaxPoints != 0 && g.InitialPoints > g.MaxPoints, "must not exceed grid.max_points"},
 		{"grid.max_change", g.MaxChange < 0 || g.MaxChange >= 1, "must lie in (0, 1)"},
 		{"grid.max_gradient_change", g.MaxGradientChange < 0 || g.MaxGradientChange >= 1, "must lie in (0, 1)"},
 		{"grid.max_spacing_ratio", g.MaxSpacingRatio != 0 && g.MaxSpacingRatio < 1.2, "must be at least 1.2"},
 		{"grid.removal_margin", g.RemovalMargin < 0 || g.RemovalMargin >= 1, "must lie in [0, 1)"},
 		{"grid.max_points", g.MaxPoints != 0 && g.MaxPoints < 20, "must be at least 20"},
-		{"grid.domain_length", c.Grid.DomainLength < 0, "must be positive"},
+		{"grid.domain_length", g.DomainLength != nil && !(c.Grid.DomainLength >= minDomain && c.Grid.DomainLength <= maxDomain),
+			fmt.Sprintf("%g m is outside 10 um - 10 m; leave the key out to let the solver choose the length", c.Grid.DomainLength)},
 	} {
 		if chk.bad {
 			return nil, fe(chk.key, "%s", chk.msg)
@@ -292,7 +306,7 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 
 	s := r.Solver
-	c.Solver = SolverSettings{ThermalDiffusion: true, RelativeTol: s.RelativeTol, Workers: s.Workers}
+	c.Solver = SolverSettings{ThermalDiffusion: true, RelativeTol: valueOr(s.RelativeTol, 0), Workers: s.Workers}
 	if s.ThermalDiffusion != nil {
 		c.Solver.ThermalDiffusion = *s.ThermalDiffusion
 	}
@@ -314,8 +328,8 @@ func Parse(src []byte, file string) (*Case, error) {
 	if s.AnchorRise != 0 && !(s.AnchorRise >= 20 && s.AnchorRise <= 1500) {
 		return nil, fe("solver.anchor_rise", "temperature rise at the anchor point must lie in 20-1500 K (got %g)", s.AnchorRise)
 	}
-	if s.RelativeTol < 0 || s.RelativeTol > 1e-2 {
-		return nil, fe("solver.relative_tolerance", "must lie in (0, 1e-2]")
+	if s.RelativeTol != nil && !(*s.RelativeTol > 0 && *s.RelativeTol <= 1e-2) {
+		return nil, fe("solver.relative_tolerance", "%g: must lie in (0, 1e-2]; leave the key out for the default", *s.RelativeTol)
 	}
 	if s.Workers < 0 {
 		return nil, fe("solver.workers", "must be 0 (all cores) or positive")
@@ -328,6 +342,41 @@ func Parse(src []byte, file string) (*Case, error) {
 		return nil, err
 	}
 	return c, nil
+}
+
+// Bounds on case-file values that size the work or are copied into every
+// output file.
+const (
+	// maxTitleBytes bounds the title and fuel descriptions, copied into
+	// file headers.
+	maxTitleBytes = 200
+	// maxNameBytes bounds a fuel name, which also names a folder.
+	maxNameBytes = 64
+	// maxInitialPoints and maxGridPoints bound the grid: memory grows with
+	// points x species squared (about 80 kB a point for GRI-Mech 3.0).
+	maxInitialPoints = 1000
+	maxGridPoints    = 10000
+	// minDomain and maxDomain (m) bound [grid] domain_length: a flame
+	// zone is about 1 um thick at 100 MPa and about 1 m at 100 Pa.
+	minDomain = 1e-5
+	maxDomain = 10
+)
+
+const phiRange = "the equivalence ratio must lie between 0 and 100 (both excluded)"
+
+// checkText refuses text that would break the files it is copied into:
+// control characters (line breaks, tabs, escapes) and text longer than
+// max bytes.
+func checkText(s string, max int) error {
+	if len(s) > max {
+		return fmt.Errorf("%d bytes; at most %d", len(s), max)
+	}
+	for i, r := range s {
+		if unicode.IsControl(r) || r == '\u2028' || r == '\u2029' {
+			return fmt.Errorf("control character %U at byte %d: write it on one line, without tabs or escapes", r, i)
+		}
+	}
+	return nil
 }
 
 // quantity converts a TOML value (number in SI, or a string with units) to
