@@ -7,6 +7,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"strings"
 	"sync"
 )
 
@@ -59,6 +60,9 @@ func newSet(dir string, check bool) (*Set, error) {
 	if err := os.MkdirAll(parent, 0o755); err != nil {
 		return nil, fmt.Errorf("output folder %s: %w", dir, err)
 	}
+	if check {
+		RemoveLeftovers(parent, filepath.Base(abs))
+	}
 	if s.tmp, err = os.MkdirTemp(parent, "."+filepath.Base(abs)+".tmp-*"); err != nil {
 		return nil, fmt.Errorf("output folder %s cannot be written: %w", dir, err)
 	}
@@ -98,6 +102,27 @@ func (s *Set) replaceable() error {
 	}
 	return fmt.Errorf("output folder %s holds files flame1d did not write as a result set (%s, ...); give a new or empty folder, or move those files away",
 		s.dir, entries[0].Name())
+}
+
+// RemoveLeftovers deletes the temporary folders that sets for parent/name
+// left behind when their program was killed (SIGKILL, a power cut) before
+// it could clean up; name "" means every set's in parent.
+func RemoveLeftovers(parent, name string) {
+	entries, err := os.ReadDir(parent)
+	if err != nil {
+		return
+	}
+	for _, e := range entries {
+		n := e.Name()
+		if !e.IsDir() || !strings.HasPrefix(n, ".") {
+			continue
+		}
+		i := strings.LastIndex(n, ".tmp-")
+		if i < 1 || (name != "" && n[1:i] != name) {
+			continue
+		}
+		os.RemoveAll(filepath.Join(parent, n))
+	}
 }
 
 // Dir is the folder to write the set's files into (the temporary one).
@@ -151,16 +176,18 @@ func (s *Set) Commit() error {
 }
 
 // Abort abandons the set: the temporary folder is deleted and the output
-// folder stays as it was. It does nothing after Commit, and may be called
-// from another goroutine (a signal handler) while files are written.
-func (s *Set) Abort() {
+// folder stays as it was. It does nothing after Commit (and then reports
+// false), and may be called from another goroutine (a signal handler)
+// while files are written.
+func (s *Set) Abort() (abandoned bool) {
 	s.mu.Lock()
 	defer s.mu.Unlock()
 	if s.done {
-		return
+		return false
 	}
 	s.done = true
 	os.RemoveAll(s.tmp)
+	return true
 }
 
 // swapInto moves folder tmp to dir. When dir exists, the two are exchanged

@@ -1,7 +1,10 @@
 package sweep
 
 import (
+	"errors"
 	"fmt"
+	"io/fs"
+	"os"
 	"path/filepath"
 	"regexp"
 	"sort"
@@ -61,6 +64,9 @@ func Merge(dirs []string, out string) (*MergeSummary, error) {
 		}
 		byShard[m.Shard.Index] = d
 		manifests[m.Shard.Index] = m
+	}
+	if err := checkMergeFolder(out, dirs); err != nil {
+		return nil, err
 	}
 	plan, err := NewPlan(first.Definition)
 	if err != nil {
@@ -150,21 +156,69 @@ func Merge(dirs []string, out string) (*MergeSummary, error) {
 	}
 	m := &Manifest{Format: manifestFormat, Title: first.Title, Definition: first.Definition, Shard: Shard{0, 1},
 		MergedFrom: abs, Note: output.SafetyNote}
-	if err := m.write(out); err != nil {
+	set, err := output.NewOwnedSet(out)
+	if err != nil {
+		return nil, fmt.Errorf("merge: %w", err)
+	}
+	defer set.Abort()
+	if err := m.write(set.Dir()); err != nil {
 		return nil, err
 	}
 	t := &Table{Comments: resultsComments(first.Title, first.Definition), Rows: rows}
-	if err := output.WriteFileAtomic(filepath.Join(out, ResultsName), t.WriteCSV); err != nil {
+	if err := set.WriteFile(ResultsName, t.WriteCSV); err != nil {
 		return nil, err
 	}
 	all := make([]int, len(plan.Points))
 	for i := range all {
 		all[i] = i
 	}
-	if err := writePlots(out, first.Title, plan, all, recs); err != nil {
+	if err := writePlots(set.Dir(), first.Title, plan, all, recs); err != nil {
 		return nil, err
 	}
+	if err := set.Commit(); err != nil {
+		return nil, fmt.Errorf("merge: %w", err)
+	}
 	return sum, nil
+}
+
+// checkMergeFolder refuses a merge output folder that is one of the input
+// shards (the shard would turn into merged results and stop being
+// resumable), or that holds anything but an earlier merge: a sweep or
+// shard folder, or files of the user's own such as a results.csv. A new or
+// empty folder, or an earlier merge, is replaced as a whole.
+func checkMergeFolder(out string, dirs []string) error {
+	info, err := os.Stat(out)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return fmt.Errorf("merge: -o %s: %w", out, err)
+	}
+	if !info.IsDir() {
+		return fmt.Errorf("merge: -o %s is a file; give a folder for the merged results", out)
+	}
+	for _, d := range dirs {
+		if di, err := os.Stat(d); err == nil && os.SameFile(info, di) {
+			return fmt.Errorf("merge: -o %s is the shard folder %s; give a new folder for the merged results (the shard must stay resumable)", out, d)
+		}
+	}
+	entries, err := os.ReadDir(out)
+	if err != nil {
+		return fmt.Errorf("merge: -o %s: %w", out, err)
+	}
+	if len(entries) == 0 {
+		return nil
+	}
+	m, err := ReadManifest(out)
+	switch {
+	case errors.Is(err, errNoManifest):
+		return fmt.Errorf("merge: -o %s is not empty (%s, ...) and holds no earlier merge; give a new or empty folder", out, entries[0].Name())
+	case err != nil:
+		return fmt.Errorf("merge: -o %s: %w", out, err)
+	case len(m.MergedFrom) == 0:
+		return fmt.Errorf("merge: -o %s holds a sweep run (shard %v), not an earlier merge; give a new folder for the merged results", out, m.Shard)
+	}
+	return nil
 }
 
 // likelyFolder guesses the folder of a missing shard from the names of the

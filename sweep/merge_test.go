@@ -152,3 +152,51 @@ func TestMergeRefusesDuplicatedOrForeignRows(t *testing.T) {
 		})
 	}
 }
+
+// merge -o refuses an input shard folder and a folder of the user's own
+// files, leaving both as they were; an earlier merge is replaced whole
+// (issue 11, item 4).
+func TestMergeOutputGuard(t *testing.T) {
+	root := t.TempDir()
+	dirs := runShards(t, fakeSweep, root, 2)
+	shardTable, _ := os.ReadFile(filepath.Join(dirs[0], ResultsName))
+
+	if _, err := Merge(dirs, dirs[0]); err == nil || !strings.Contains(err.Error(), "is the shard folder") {
+		t.Errorf("-o onto an input shard: %v", err)
+	}
+	if b, _ := os.ReadFile(filepath.Join(dirs[0], ResultsName)); string(b) != string(shardTable) {
+		t.Error("the shard's table changed")
+	}
+	if m, err := ReadManifest(dirs[0]); err != nil || len(m.MergedFrom) > 0 {
+		t.Errorf("the shard's manifest changed: %+v, %v", m, err)
+	}
+
+	own := filepath.Join(root, "mine")
+	os.MkdirAll(own, 0o755)
+	os.WriteFile(filepath.Join(own, ResultsName), []byte("my own results\n"), 0o644)
+	if _, err := Merge(dirs, own); err == nil || !strings.Contains(err.Error(), "holds no earlier merge") {
+		t.Errorf("-o onto a folder of own files: %v", err)
+	}
+	if b, _ := os.ReadFile(filepath.Join(own, ResultsName)); string(b) != "my own results\n" {
+		t.Errorf("own results.csv overwritten: %q", b)
+	}
+
+	// Another sweep's folder that was not given as input is refused too.
+	other := filepath.Join(root, "other")
+	opt, _ := fakeOptions(1, nil)
+	runSweep(t, sweepCase(t, "equivalence_ratio = [0.8, 1.0]"), other, opt)
+	if _, err := Merge(dirs, other); err == nil || !strings.Contains(err.Error(), "holds a sweep run") {
+		t.Errorf("-o onto another sweep: %v", err)
+	}
+
+	merged := filepath.Join(root, "merged")
+	for i := 0; i < 2; i++ {
+		if _, err := Merge(dirs, merged); err != nil {
+			t.Fatalf("merge %d into %s: %v", i+1, merged, err)
+		}
+	}
+	left, _ := filepath.Glob(filepath.Join(root, ".*"))
+	if len(left) > 0 {
+		t.Errorf("temporary folders left: %v", left)
+	}
+}

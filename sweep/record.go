@@ -109,12 +109,30 @@ const (
 
 func pointDir(dir, id string) string { return filepath.Join(dir, pointsDir, id) }
 
-func writeRecord(dir string, r *Record) error {
-	return output.WriteFileAtomic(filepath.Join(pointDir(dir, r.ID), recordName), func(w io.Writer) error {
+// commitPoint writes a point's folder, points/<id>/ (the flame files of a
+// solved point, and point.json), as one output.Set: a point is committed
+// whole or not at all, and committing it costs the same whatever the size
+// of the sweep. res is nil for a failed point.
+func commitPoint(dir string, r *Record, res *study.Result) error {
+	set, err := output.NewOwnedSet(pointDir(dir, r.ID))
+	if err != nil {
+		return err
+	}
+	defer set.Abort()
+	if res != nil {
+		if err := study.WriteFlameTables(set.Dir(), res); err != nil {
+			return err
+		}
+	}
+	err = set.WriteFile(recordName, func(w io.Writer) error {
 		enc := json.NewEncoder(w)
 		enc.SetIndent("", "  ")
 		return enc.Encode(r)
 	})
+	if err != nil {
+		return err
+	}
+	return set.Commit()
 }
 
 // readRecords reads the committed records of the given points; points

@@ -116,6 +116,8 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 	if err != nil {
 		return nil, err
 	}
+	// A killed run may have left a point's unfinished folder behind.
+	output.RemoveLeftovers(filepath.Join(dir, pointsDir), "")
 	recs, err := readRecords(dir, plan, points)
 	if err != nil {
 		return nil, err
@@ -136,6 +138,12 @@ func Run(ctx context.Context, c *casefile.Case, dir string, opt Options) (*Summa
 		return nil, err
 	}
 	attempted, stopped, runErr := r.schedule(ctx)
+	// The table is built once, from the committed records, also after an
+	// interruption; a killed run leaves it stale, and the next run into
+	// the folder rebuilds it from the records.
+	if err := r.writeResults(); err != nil && runErr == nil {
+		runErr = err
+	}
 	plotErr := writePlots(dir, c.Title, plan, points, r.recs)
 	s := &Summary{Dir: dir, Points: len(points), Reused: reused, Attempted: attempted, Repaired: r.repaired, WallTime: time.Since(began)}
 	if warning != "" {
@@ -337,9 +345,6 @@ func (r *runner) schedule(ctx context.Context) (attempted int, stopped bool, err
 					}
 				}
 			}
-			if err := r.writeResults(); err != nil && fatal == nil {
-				fatal = err
-			}
 			queueRepair(chain)
 			if r.opt.Progress != nil && !o.repair {
 				r.opt.Progress(Progress{Done: finished, Total: total, Record: o.rec})
@@ -496,17 +501,13 @@ func (r *runner) solvePoint(solver PointSolver, t task) (*Record, error) {
 		try(ColdStart, w, t0)
 	}
 	rec.WallTimeS += time.Since(began).Seconds()
-	dir := pointDir(r.dir, pt.ID)
 	if res == nil {
 		rec.Status = Failed
 		rec.Reason = failureReason(rec.Attempts)
 	} else {
 		rec.Status = Solved
-		if err := study.WriteFlameTables(dir, res); err != nil {
-			return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
-		}
 	}
-	if err := writeRecord(r.dir, rec); err != nil {
+	if err := commitPoint(r.dir, rec, res); err != nil {
 		return nil, fmt.Errorf("sweep point %s: %w", pt.ID, err)
 	}
 	return rec, nil

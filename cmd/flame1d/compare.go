@@ -39,12 +39,17 @@ equivalence ratios, at the case's unburned temperature and pressure, and write:
                                oxidation zones as bars aligned at the
                                heat-release peak, with temperature windows
   <fuel>/                      profile.csv, zones.csv, flame plot, summary of
-                               each fuel at the profile condition
+                               each fuel at the profile condition (a fuel name
+                               that is not a plain file name gets a safe one;
+                               the real name is inside the files)
   compare-sensitivity.csv      with --sensitivity: at the profile condition,
                                the reactions that matter most for each fuel
                                and those whose coefficients differ most from
                                the reference; S_L carries its 1σ rate-constant
                                band in the tables and error bars in the chart
+
+The folder is written as one set and replaced as a whole when complete; an
+interrupted run leaves the previous results as they were.
 
 The first fuel is the reference (typically the surrogate used in CFD).
 Failed points are reported in the table with their reason, never as numbers.
@@ -90,13 +95,19 @@ Failed points are reported in the table with their reason, never as numbers.
 			if sens {
 				c.Sensitivity.Enabled = true
 			}
+			set, err := output.NewSet(outDir)
+			if err != nil {
+				return err
+			}
+			defer set.Abort()
+			defer abandonOnSignal(set, cmd.ErrOrStderr())()
 			cmp, err := study.Compare(c, names, phiList, progress)
 			if err != nil {
 				return err
 			}
 			rows := cmp.Table()
 			comments := []string{"flame1d fuel comparison: " + c.Title, output.SafetyNote}
-			err = output.WriteFileAtomic(filepath.Join(outDir, "compare.csv"), func(w io.Writer) error {
+			err = set.WriteFile("compare.csv", func(w io.Writer) error {
 				if err := output.WriteComments(w, comments); err != nil {
 					return err
 				}
@@ -109,7 +120,7 @@ Failed points are reported in the table with their reason, never as numbers.
 			if err != nil {
 				return err
 			}
-			if err := cmp.WritePlots(outDir, profilePhi); err != nil {
+			if err := cmp.WritePlots(set.Dir(), profilePhi); err != nil {
 				return err
 			}
 			ip := 0
@@ -120,13 +131,16 @@ Failed points are reported in the table with their reason, never as numbers.
 			}
 			for _, name := range cmp.Fuels {
 				if r := cmp.Results[name][ip]; r != nil {
-					if err := study.WriteFlame(filepath.Join(outDir, name), r); err != nil {
+					if err := study.WriteFlame(filepath.Join(set.Dir(), output.SafeName(name)), r); err != nil {
 						return err
 					}
 				}
 			}
 			printCompare(cmd.OutOrStdout(), cmp)
-			if err := writeCompareSensitivity(cmd.OutOrStdout(), outDir, cmp, profilePhi, comments); err != nil {
+			if err := writeCompareSensitivity(cmd.OutOrStdout(), set.Dir(), cmp, profilePhi, comments); err != nil {
+				return err
+			}
+			if err := set.Commit(); err != nil {
 				return err
 			}
 			fmt.Fprintf(cmd.OutOrStdout(), "\nresults in %s\n%s\n", outDir, output.SafetyNote)
@@ -134,7 +148,7 @@ Failed points are reported in the table with their reason, never as numbers.
 		},
 	}
 	cmd.Flags().StringVarP(&outDir, "output", "o", "", "output folder (default <case>-compare)")
-	cmd.Flags().StringVar(&fuels, "fuels", "", "comma-separated fuel names (default: the [compare] table)")
+	cmd.Flags().StringVar(&fuels, "fuels", "", "comma-separated fuel names (default: the [compare] table, or every [fuels.NAME] table)")
 	cmd.Flags().StringVar(&phis, "phi", "", "comma-separated equivalence ratios (default: the [compare] table)")
 	cmd.Flags().BoolVarP(&quiet, "quiet", "q", false, "no progress messages on stderr")
 	cmd.Flags().BoolVar(&sens, "sensitivity", false, "also compute flame-speed sensitivities and rate-constant bands (as [sensitivity] enabled = true)")

@@ -49,6 +49,11 @@ folder named after the case file):
                  as a bar chart, and the 1σ band of S_L from the
                  rate-constant uncertainty factors (docs/sensitivity.md)
 
+The files are written as one set: the folder is replaced as a whole once
+every file is complete, and a failed or interrupted run (Ctrl-C, SIGTERM)
+leaves the previous results as they were. The folder must be new, empty, or
+one flame1d wrote.
+
 Progress goes to stderr (silence it with -q). A failed solve exits non-zero
 and writes nothing.
 
@@ -89,6 +94,12 @@ and writes nothing.
 			if quiet {
 				progress = nil
 			}
+			set, err := output.NewSet(outDir)
+			if err != nil {
+				return err
+			}
+			defer set.Abort()
+			defer abandonOnSignal(set, cmd.ErrOrStderr())()
 			st, err := study.New(c, progress)
 			if err != nil {
 				return err
@@ -103,7 +114,10 @@ and writes nothing.
 			if err != nil {
 				return err
 			}
-			if err := study.WriteFlame(outDir, res); err != nil {
+			if err := study.WriteFlame(set.Dir(), res); err != nil {
+				return err
+			}
+			if err := set.Commit(); err != nil {
 				return err
 			}
 			if asJSON {

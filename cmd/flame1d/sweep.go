@@ -48,7 +48,8 @@ Writes into the output folder (-o, or [output] directory, or <case>-sweep):
   S_L-vs-<variable>.svg   flame speed against each swept variable (and .png)
   sweep.json              the sweep definition
 
-Points are committed one by one. An interrupted sweep (Ctrl-C, a killed job)
+Points are committed one by one (each point's folder as a whole);
+results.csv is built when the run starts and when it ends. An interrupted sweep (Ctrl-C, a killed job)
 run again into the same folder keeps the points already solved and gives the
 same table. --shard I/N solves the I-th of N slices (for cluster job arrays);
 join the shard folders with "flame1d merge".
