@@ -12,12 +12,15 @@ import (
 )
 
 // SetMarker is the file every result set carries: it tells flame1d (and
-// people) that the folder was written as one set and may be replaced as a
-// whole by the next set written into it.
+// people) that the folder was written as one set, and lists the set's
+// files, after a header of lines starting with "#". The next set written
+// into the folder replaces it as a whole, unless someone added a file of
+// their own.
 const SetMarker = ".flame1d-set"
 
-const setMarkerText = "This folder was written by flame1d as one result set. The next flame1d run into it\n" +
-	"replaces the whole folder at once; files added here by hand would stop it.\n"
+const setMarkerHeader = "# This folder was written by flame1d as one result set: the files listed below.\n" +
+	"# The next flame1d run into it replaces the whole folder at once; it refuses\n" +
+	"# to if files not listed here were added.\n"
 
 // Set writes a folder of results as one: the files go into a hidden
 // temporary folder beside the output folder, and Commit swaps that folder
@@ -95,13 +98,53 @@ func (s *Set) replaceable() error {
 	if len(entries) == 0 {
 		return nil
 	}
-	for _, e := range entries {
-		if e.Name() == SetMarker {
-			return nil
+	listed, err := readMarker(s.dir)
+	if err != nil {
+		return fmt.Errorf("output folder %s holds files flame1d did not write as a result set (%s, ...); give a new or empty folder, or move those files away",
+			s.dir, entries[0].Name())
+	}
+	present, err := treeOf(s.dir)
+	if err != nil {
+		return fmt.Errorf("output folder %s: %w", s.dir, err)
+	}
+	for _, p := range present {
+		if !listed[p] {
+			return fmt.Errorf("output folder %s holds %s, which is not part of the results flame1d wrote there; move it away or give another folder",
+				s.dir, p)
 		}
 	}
-	return fmt.Errorf("output folder %s holds files flame1d did not write as a result set (%s, ...); give a new or empty folder, or move those files away",
-		s.dir, entries[0].Name())
+	return nil
+}
+
+// readMarker reads the listing of a set folder's marker file.
+func readMarker(dir string) (map[string]bool, error) {
+	b, err := os.ReadFile(filepath.Join(dir, SetMarker))
+	if err != nil {
+		return nil, err
+	}
+	listed := map[string]bool{SetMarker: true}
+	for _, line := range strings.Split(string(b), "\n") {
+		if line != "" && !strings.HasPrefix(line, "#") {
+			listed[line] = true
+		}
+	}
+	return listed, nil
+}
+
+// treeOf lists the files and folders below root, as slash-separated
+// relative paths in walk order.
+func treeOf(root string) ([]string, error) {
+	var out []string
+	err := filepath.WalkDir(root, func(path string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		if rel, _ := filepath.Rel(root, path); rel != "." {
+			out = append(out, filepath.ToSlash(rel))
+		}
+		return nil
+	})
+	return out, err
 }
 
 // RemoveLeftovers deletes the temporary folders that sets for parent/name
@@ -153,7 +196,10 @@ func (s *Set) Commit() error {
 		s.done = true
 		return err
 	}
-	err := os.WriteFile(filepath.Join(s.tmp, SetMarker), []byte(setMarkerText), 0o644)
+	files, err := treeOf(s.tmp)
+	if err == nil {
+		err = os.WriteFile(filepath.Join(s.tmp, SetMarker), []byte(setMarkerHeader+strings.Join(files, "\n")+"\n"), 0o644)
+	}
 	if err == nil {
 		err = syncTree(s.tmp)
 	}

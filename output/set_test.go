@@ -144,3 +144,39 @@ func TestSetWriteFileStaysInside(t *testing.T) {
 		}
 	}
 }
+
+// A file added by hand to a result set stops the next set from replacing
+// the folder: nothing the user put there is deleted.
+func TestSetRefusesAddedFiles(t *testing.T) {
+	dir := filepath.Join(t.TempDir(), "out")
+	if err := writeSet(t, dir, map[string]string{"profile.csv": "old", "fuel/summary.txt": "old"}).Commit(); err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(filepath.Join(dir, "fuel", "my-notes.txt"), []byte("mine"), 0o644)
+	if _, err := NewSet(dir); err == nil || !strings.Contains(err.Error(), "fuel/my-notes.txt") {
+		t.Fatalf("added file: %v", err)
+	}
+	os.Remove(filepath.Join(dir, "fuel", "my-notes.txt"))
+	s, err := NewSet(dir)
+	if err != nil {
+		t.Fatalf("after removing the added file: %v", err)
+	}
+	s.Abort()
+}
+
+// Temporary folders a killed run left beside the output folder are
+// cleared by the next set for that folder, and only those.
+func TestNewSetClearsLeftovers(t *testing.T) {
+	parent := t.TempDir()
+	for _, n := range []string{".out.tmp-123", ".out.tmp-9.old", ".other.tmp-5", ".outer.tmp-1"} {
+		os.MkdirAll(filepath.Join(parent, n, "x"), 0o755)
+	}
+	s, err := NewSet(filepath.Join(parent, "out"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Abort()
+	if got := strings.Join(listing(t, parent), " "); got != ".other.tmp-5 .other.tmp-5/x .outer.tmp-1 .outer.tmp-1/x" {
+		t.Errorf("after NewSet: %s", got)
+	}
+}
