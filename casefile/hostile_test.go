@@ -68,3 +68,18 @@ func TestReadFileRefusesDevicesAndHugeFiles(t *testing.T) {
 		t.Errorf("50 MB case file: %v", err)
 	}
 }
+
+// A range with a tiny step or a huge count says how many values it would
+// make in a few digits, not three hundred (issue 11, item 8).
+func TestHugeSweepCountsAreShort(t *testing.T) {
+	for _, tc := range []struct{ sweep, want string }{
+		{"equivalence_ratio = { from = 0.6, to = 1.4, step = 1e-300 }", "gives about 8e+299 values; at most 1000"},
+		{"equivalence_ratio = { from = 0.6, to = 1.4, step = 1e-5 }", "gives 80001 values; at most 1000"},
+		{"equivalence_ratio = { from = 0.6, to = 1.4, count = 9223372036854775807 }", "count 9223372036854775807; at most 1000"},
+	} {
+		_, err := Parse([]byte(base+"[sweep]\n"+tc.sweep+"\n"), "case.toml")
+		if err == nil || !strings.Contains(err.Error(), tc.want) || len(err.Error()) > 300 {
+			t.Errorf("%s: got %v, want %q", tc.sweep, err, tc.want)
+		}
+	}
+}

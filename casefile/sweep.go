@@ -241,7 +241,7 @@ func (sv sweepVariable) expandRange(t map[string]any) ([]float64, error) {
 		}
 		n := math.Floor((to-from)/step + 1e-9)
 		if n+1 > maxSweepValues {
-			return nil, fmt.Errorf("step %g from %g to %g gives %.0f values; at most %d", step, from, to, n+1, maxSweepValues)
+			return nil, fmt.Errorf("step %g from %g to %g gives %s values; at most %d", step, from, to, countText(n+1), maxSweepValues)
 		}
 		out := make([]float64, 0, int(n)+1)
 		for i := 0; i <= int(n); i++ {
@@ -310,6 +310,15 @@ func (sv sweepVariable) stepSize(v any) (float64, error) {
 		return 0, fmt.Errorf("step must be positive (got %v)", v)
 	}
 	return step, nil
+}
+
+// countText writes a count a person can read: whole numbers up to a
+// million, "about 1.2e+300" beyond.
+func countText(n float64) string {
+	if n < 1e6 {
+		return strconv.FormatFloat(n, 'f', 0, 64)
+	}
+	return "about " + strconv.FormatFloat(n, 'g', 2, 64)
 }
 
 // RoundSignificant rounds to 12 significant digits, so that ranges built by

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 	"text/tabwriter"
@@ -112,6 +113,11 @@ fitting.
 					return err
 				}
 				s, warn := c.Evaluate(phi, T, P)
+				if s == 0 {
+					// Evaluate returns 0 only when there is no flame speed; the
+					// last warning says why.
+					return fmt.Errorf("--eval %q: no flame speed: %s", e, warn[len(warn)-1])
+				}
 				fmt.Fprintf(w, "S_L(phi %g, %g K, %g Pa) = %s m/s\n", phi, T, P, strconv.FormatFloat(s, 'g', 6, 64))
 				for _, m := range warn {
 					fmt.Fprintf(cmd.ErrOrStderr(), "warning: %s\n", m)
@@ -168,6 +174,14 @@ func parseEval(s string) (phi, T, P float64, err error) {
 	}
 	if P, err = units.Parse(parts[2], units.Pressure); err != nil {
 		return 0, 0, 0, fmt.Errorf("--eval %q: %v", s, err)
+	}
+	for _, v := range []struct {
+		name string
+		v    float64
+	}{{"equivalence ratio", phi}, {"temperature", T}, {"pressure", P}} {
+		if !(v.v > 0) || math.IsInf(v.v, 0) {
+			return 0, 0, 0, fmt.Errorf("--eval %q: the %s %v is not a finite positive number", s, v.name, v.v)
+		}
 	}
 	return phi, T, P, nil
 }
