@@ -118,12 +118,41 @@ func NewForFuel(c *casefile.Case, mech *chem.Mechanism, spec fuel.Spec, progress
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", c.File, err)
 	}
+	if err := needTransport(c, res.Mechanism); err != nil {
+		return nil, err
+	}
 	solver, err := flame.NewSolver(res.Mechanism)
 	if err != nil {
 		return nil, err
 	}
 	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, Set: res.Set, Solver: solver, Settings: Settings(c, progress),
 		spec: &spec, base: mech, baseSet: base}, nil
+}
+
+// needTransport refuses, with what to do, a mechanism whose species lack
+// the kinetic-theory data a flame needs: typically one imported without
+// its transport file.
+func needTransport(c *casefile.Case, m *chem.Mechanism) error {
+	var missing []string
+	for i := range m.Species {
+		if m.Species[i].Transport == nil {
+			missing = append(missing, m.Species[i].Name)
+		}
+	}
+	if len(missing) == 0 {
+		return nil
+	}
+	list := strings.Join(missing, ", ")
+	if len(missing) > 8 {
+		list = strings.Join(missing[:8], ", ") + fmt.Sprintf(", ... (%d more)", len(missing)-8)
+	}
+	what := fmt.Sprintf("%d of its %d species have no transport data", len(missing), len(m.Species))
+	if len(missing) == len(m.Species) {
+		what = "it has no transport data"
+	}
+	return fmt.Errorf("%s: mechanism %s: %s (%s), which a flame needs; "+
+		"import the mechanism again with its transport file: flame1d mech import REACTIONS --thermo THERMO --transport TRANSPORT -o MECH.toml",
+		c.File, c.Mechanism, what, list)
 }
 
 // Settings maps a case's [grid] and [solver] tables onto solver settings.
