@@ -327,7 +327,62 @@ func (s *Study) ReadRestart(path string) (*flame.Solution, error) {
 		return nil, err
 	}
 	defer f.Close()
-	return flame.ReadRestart(f, path, s.Mechanism)
+	return readRestart(f, path, s.Mechanism)
+}
+
+// readRestart reads a restart file and checks that the state it holds is
+// physical: the reader accepts any number, "NaN" included, in the header.
+func readRestart(r io.Reader, path string, m *chem.Mechanism) (*flame.Solution, error) {
+	sol, err := flame.ReadRestart(r, path, m)
+	if err != nil {
+		return nil, err
+	}
+	if err := checkRestart(sol); err != nil {
+		return nil, fmt.Errorf("%s: %w; it is not a restart file flame1d wrote, or it was edited", path, err)
+	}
+	return sol, nil
+}
+
+// checkRestart refuses a restart state that is not a flame: temperatures
+// and pressure that are not finite positive numbers, mass fractions outside
+// [0, 1] beyond round-off, a mass flux that is not positive, an anchor
+// outside the domain.
+func checkRestart(s *flame.Solution) error {
+	positive := func(what string, v float64) error {
+		if !(v > 0) || math.IsInf(v, 0) {
+			return fmt.Errorf("%s %v is not a finite positive number", what, v)
+		}
+		return nil
+	}
+	for _, c := range []struct {
+		what string
+		v    float64
+	}{{"inlet temperature", s.Inlet.T}, {"pressure", s.Inlet.P}, {"anchor temperature", s.AnchorT}, {"mass flux", s.MassFlux()}} {
+		if err := positive(c.what, c.v); err != nil {
+			return err
+		}
+	}
+	const roundOff = 1e-6
+	for _, y := range s.Inlet.Y {
+		if !(y >= -roundOff && y <= 1+roundOff) {
+			return fmt.Errorf("inlet mass fraction %v is outside [0, 1]", y)
+		}
+	}
+	n := s.Points()
+	if !(s.AnchorX >= s.X[0] && s.AnchorX <= s.X[n-1]) || !(s.InitialLength >= 0) || math.IsInf(s.InitialLength, 0) {
+		return fmt.Errorf("anchor at %v m or initial length %v m does not fit the domain %v-%v m", s.AnchorX, s.InitialLength, s.X[0], s.X[n-1])
+	}
+	for j := 0; j < n; j++ {
+		if err := positive(fmt.Sprintf("temperature at point %d", j+1), s.T(j)); err != nil {
+			return err
+		}
+		for _, y := range s.Y(j) {
+			if !(y >= -roundOff && y <= 1+roundOff) {
+				return fmt.Errorf("mass fraction %v at point %d is outside [0, 1]", y, j+1)
+			}
+		}
+	}
+	return nil
 }
 
 // WriteFlame writes a flame's result set into dir: profile.csv, zones.csv,
