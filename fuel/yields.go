@@ -215,7 +215,9 @@ func CloseYields(set *thermo.SpeciesSet, f Formula, yields map[string]float64, b
 			continue
 		}
 		reason := fmt.Sprintf("all given yields scaled by %.8g to hold the fuel's atoms", s)
-		if j, ok := isBal[i]; ok {
+		// A balance change at round-off (or a negative zero) is none: the
+		// scaling alone closed the balances.
+		if j, ok := isBal[i]; ok && math.Abs(sol[j]) > 1e-12*math.Max(1, math.Abs(p.moles[i])) {
 			reason = fmt.Sprintf("balance species: %+.6g mol/mol fuel to close the %s balances", sol[j], strings.Join(elems, ", "))
 			if scale && given[i] > 0 {
 				reason += fmt.Sprintf(" after scaling by %.8g", s)

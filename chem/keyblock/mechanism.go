@@ -104,10 +104,23 @@ func Read(mech, thermoR, transport io.Reader, names ...string) (*chem.Mechanism,
 	mf := scanMechanism(lines, fileNames[0], &p)
 	m, noThermo := mf.build(thermoLines, thermoR != nil, transportLines, transport != nil, fileNames, &p)
 	vprobs, _ := m.Validate()
+	// A reaction with a species whose thermo record is missing or broken
+	// cannot be judged for element balance: the species has no atoms.
+	unjudged := map[chem.Position]bool{}
+	for _, r := range m.Reactions {
+		for _, part := range append(append([]chem.Participant(nil), r.Reactants...), r.Products...) {
+			if noThermo[part.Species] {
+				unjudged[r.Origin] = true
+			}
+		}
+	}
 	for _, q := range vprobs {
 		// Species without a thermo record were reported above, naming the
 		// files searched; Validate's consequences for them add nothing.
 		if k := m.SpeciesIndex(speciesOfProblem(q)); k >= 0 && noThermo[k] && q.Pos == m.Species[k].Origin {
+			continue
+		}
+		if unjudged[q.Pos] && strings.Contains(q.Message, "not element-balanced") {
 			continue
 		}
 		p.list = append(p.list, q)
@@ -340,6 +353,19 @@ func speciesOfProblem(q chem.Problem) string {
 	return name
 }
 
+// brokenRecord reports whether an error was already reported for the thermo
+// record of species name (a record that exists but cannot be read), and
+// where.
+func brokenRecord(p *problemList, name string) (string, bool) {
+	prefix := fmt.Sprintf("thermo record %q", name)
+	for _, q := range p.list {
+		if !q.Warning && strings.HasPrefix(strings.ToLower(q.Message), strings.ToLower(prefix)) {
+			return fmt.Sprintf("%s:%d", q.Pos.File, q.Pos.Line), true
+		}
+	}
+	return "", false
+}
+
 // build attaches thermo and transport data and completes the reactions. It
 // also reports which species have no thermo record.
 func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines []srcLine, haveTransport bool,
@@ -399,7 +425,11 @@ func (mf *mechFile) build(thermoLines []srcLine, haveThermo bool, transportLines
 			}
 			sp.Origin = rec.Origin
 		} else {
-			p.errorf(d.pos, "species '%s' has no thermo record (searched %s)", d.name, searched)
+			if at, broken := brokenRecord(p, d.name); broken {
+				p.errorf(d.pos, "species '%s': its thermo record (%s) cannot be read; see the error there", d.name, at)
+			} else {
+				p.errorf(d.pos, "species '%s' has no thermo record (searched %s)", d.name, searched)
+			}
 			noThermo[k] = true
 		}
 		if haveTransport {
