@@ -52,6 +52,12 @@ var ErrTooLarge = errors.New("file too large")
 // the returned reader also stops with ErrTooLarge if the file grows past
 // the limit while it is read.
 func Open(path string, k Kind) (io.ReadCloser, error) {
+	// Look before opening: opening a named pipe waits for a writer.
+	if info, err := os.Stat(path); err == nil {
+		if err := check(path, info, k); err != nil {
+			return nil, err
+		}
+	}
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", k.Name, err)
