@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 	"strings"
+	"unicode"
 
 	"flame1d/thermo"
 )
@@ -66,6 +67,9 @@ func (m *Mechanism) Validate() (problems []Problem, err error) {
 	add := func(pos Position, warn bool, format string, a ...any) {
 		problems = append(problems, Problem{Pos: pos, Warning: warn, Message: fmt.Sprintf(format, a...)})
 	}
+	if strings.IndexFunc(m.Name, unicode.IsControl) >= 0 {
+		add(Position{}, false, "mechanism name %q has a control character (line break, tab, ...)", m.Name)
+	}
 	declared := map[string]bool{}
 	for _, e := range m.Elements {
 		if _, ok := thermo.AtomicWeight(e); !ok {
@@ -80,6 +84,11 @@ func (m *Mechanism) Validate() (problems []Problem, err error) {
 			add(s.Origin, false, "species %q declared twice (also species %d)", s.Name, j+1)
 		}
 		seen[s.Name] = i
+		// Names go into file headers and column names: one word, no
+		// control characters.
+		if s.Name == "" || strings.IndexFunc(s.Name, func(r rune) bool { return unicode.IsSpace(r) || unicode.IsControl(r) }) >= 0 {
+			add(s.Origin, false, "species name %q must be one word without spaces or control characters", s.Name)
+		}
 		if len(s.Composition) == 0 {
 			add(s.Origin, false, "species %q has no elemental composition (missing thermo record?)", s.Name)
 		}
