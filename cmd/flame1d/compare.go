@@ -27,8 +27,8 @@ func newCompareCmd() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "compare CASE.toml",
 		Short: "Compare the flames of two or more fuels at the same conditions",
-		Long: `Solve every fuel of a case file's [compare] table (or --fuels) over a list of
-equivalence ratios, at the case's unburned temperature and pressure, and write:
+		Long: `Solve every fuel of a case file's [compare] table (or --fuels; with neither,
+every [fuels.NAME] table) over a list of equivalence ratios, at the case's unburned temperature and pressure, and write:
   compare.csv                  S_L of each fuel, its ratio to the first fuel,
                                adiabatic and burned T, thickness, zone positions
   flame-speed.svg/.png         S_L against equivalence ratio for all fuels

@@ -64,6 +64,11 @@ Prints the carbon share of each species per step and writes into -o
 type crackStudy struct{ *study.Cracking }
 
 func runCrack(w io.Writer, path, dir string) error {
+	set, err := output.NewSet(dir)
+	if err != nil {
+		return err
+	}
+	defer set.Abort()
 	c, err := study.RunCracking(path)
 	if err != nil {
 		return err
@@ -72,15 +77,18 @@ func runCrack(w io.Writer, path, dir string) error {
 	if err := cs.writeText(w); err != nil {
 		return err
 	}
-	if err := output.WriteFileAtomic(filepath.Join(dir, "crack.csv"), cs.table().WriteCSV); err != nil {
+	if err := set.WriteFile("crack.csv", cs.table().WriteCSV); err != nil {
 		return err
 	}
 	cats, series := cs.chartSeries()
 	chart := output.Chart{Title: cs.chartTitle(), XLabel: "step of the study", YLabel: "share of the fuel's carbon [-]"}
 	for _, ext := range []string{".svg", ".png"} {
-		if err := output.StackedBars(filepath.Join(dir, "crack"+ext), chart, cats, series); err != nil {
+		if err := output.StackedBars(filepath.Join(set.Dir(), "crack"+ext), chart, cats, series); err != nil {
 			return err
 		}
+	}
+	if err := set.Commit(); err != nil {
+		return err
 	}
 	fmt.Fprintf(w, "\n  results in %s (crack.csv, crack.svg, crack.png)\n", dir)
 	return nil
