@@ -379,6 +379,13 @@ func checkText(s string, max int) error {
 	return nil
 }
 
+// quantityNames are the keys read by quantity, in case and fuel files.
+var quantityNames = map[string]bool{
+	"temperature": true, "pressure": true, "domain_length": true, "molar_mass": true,
+	"lower_heating_value": true, "higher_heating_value": true, "vaporization_enthalpy": true,
+	"standard_entropy": true, "cracking_time": true, "at_temperature": true, "activation_energy": true, "diameter": true,
+}
+
 // quantity converts a TOML value (number in SI, or a string with units) to
 // SI; nil gives the default.
 func quantity(v any, d units.Dimension, def float64) (float64, error) {

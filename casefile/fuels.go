@@ -68,6 +68,13 @@ func decodeStrict(src []byte, file string, v any, doc string) (toml.MetaData, er
 	}
 	if und := md.Undecoded(); len(und) > 0 {
 		k := und[0]
+		// A table where a quantity belongs leaves its keys undecoded.
+		for n := 1; n < len(k); n++ {
+			if quantityNames[k[n-1]] {
+				return md, &FieldError{File: file, Line: tomlpos.Line(src, k[:n]), Key: k[:n].String(),
+					Msg: "expected a number or a string with units, got a table"}
+			}
+		}
 		return md, &FieldError{File: file, Line: tomlpos.Line(src, k), Key: k.String(),
 			Msg: "unknown key (check the spelling; " + doc + " lists every key)"}
 	}

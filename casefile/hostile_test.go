@@ -24,6 +24,8 @@ func TestHostileCaseFiles(t *testing.T) {
 		{"phi as text", "[mixture]\nfuel = { CH4 = 1.0 }\nequivalence_ratio = \"1.0\"\n", []string{"case.toml:3: mixture.equivalence_ratio: expected a number, got text in quotes"}},
 		{"points as text", base + "[grid]\ninitial_points = \"many\"\n", []string{"case.toml:5: grid.initial_points: expected a whole number, got text in quotes"}},
 		{"temperature true", "[mixture]\nfuel = { CH4 = 1.0 }\nequivalence_ratio = 1.0\ntemperature = true\n", []string{"case.toml:4: mixture.temperature: expected a number or a string with units, got true or false"}},
+		{"temperature as a table", base + "[mixture.temperature]\nvalue = 300\n", []string{"case.toml:4: mixture.temperature: expected a number or a string with units, got a table"}},
+		{"fuel name with a line break, in the message", base + "[fuels.\"a\\nb\"]\ncomposition = { CH4 = 1 }\n", []string{`fuels."a\nb": fuel name`}},
 		{"relative_tolerance 0", base + "[solver]\nrelative_tolerance = 0\n", []string{"case.toml:5: solver.relative_tolerance: 0: must lie in (0, 1e-2]"}},
 		{"domain_length 0", base + "[grid]\ndomain_length = 0\n", []string{"case.toml:5: grid.domain_length: 0 m is outside 10 um - 10 m"}},
 		{"domain_length 1 km", base + "[grid]\ndomain_length = \"1000 m\"\n", []string{"grid.domain_length: 1000 m is outside"}},
