@@ -197,12 +197,6 @@ func Parse(src []byte, file string) (*Case, error) {
 			if err != nil {
 				return nil, err
 			}
-			if err := checkText(spec.Name, maxNameBytes); err != nil {
-				return nil, fe(k.String(), "fuel name: %v", err)
-			}
-			if err := checkText(spec.Description, maxTitleBytes); err != nil {
-				return nil, fe(k.String()+".description", "%v", err)
-			}
 			c.Fuels = append(c.Fuels, spec)
 		}
 	}

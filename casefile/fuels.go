@@ -89,6 +89,15 @@ func keyErrors(src []byte, file string) keyError {
 
 // spec converts the table [fuels.name] to SI units.
 func (t *fuelTable) spec(name string, fe keyError) (fuel.Spec, error) {
+	// The name and description are copied into outputs; the name also
+	// names a folder.
+	table := toml.Key{"fuels", name}.String()
+	if err := checkText(name, maxNameBytes); err != nil {
+		return fuel.Spec{}, fe(table, "fuel name: %v", err)
+	}
+	if err := checkText(t.Description, maxTitleBytes); err != nil {
+		return fuel.Spec{}, fe(table+".description", "%v", err)
+	}
 	s := fuel.Spec{Name: name, Description: t.Description, Composition: t.Composition,
 		Formula: t.Formula, HToC: t.HToC, OToC: t.OToC, Mode: t.Mode, SpeciesName: t.SpeciesName}
 	key := "fuels." + name + "."

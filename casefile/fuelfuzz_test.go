@@ -1,4 +1,4 @@
-package fuel
+package casefile
 
 import (
 	"math"
@@ -10,6 +10,7 @@ import (
 
 	"flame1d/builtin"
 	"flame1d/chem"
+	"flame1d/fuel"
 )
 
 var fuzzMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return builtin.Load("lu2009-heptane") })
@@ -18,7 +19,7 @@ var fuzzMechanism = sync.OnceValues(func() (*chem.Mechanism, error) { return bui
 // construction panic; every error names the file; an accepted pool has
 // finite, non-negative amounts (issue 11, item 10).
 //
-//	go test ./fuel -run XXX -fuzz FuzzParseFuels -fuzztime 120s
+//	go test ./casefile -run XXX -fuzz FuzzParseFuels -fuzztime 120s
 func FuzzParseFuels(f *testing.F) {
 	files, _ := filepath.Glob("../examples/fuels/*.toml")
 	for _, p := range files {
@@ -33,19 +34,22 @@ func FuzzParseFuels(f *testing.F) {
 	if err != nil {
 		f.Fatal(err)
 	}
-	set, err := SpeciesSet(m)
+	set, err := fuel.SpeciesSet(m)
 	if err != nil {
 		f.Fatal(err)
 	}
 	f.Fuzz(func(t *testing.T, src string) {
-		_, specs, err := ParseFuels([]byte(src), "fuzz.toml")
+		ff, err := ParseFuels([]byte(src), "fuzz.toml")
 		if err != nil {
 			if !strings.HasPrefix(err.Error(), "fuzz.toml") {
 				t.Fatalf("error without the file name: %v", err)
 			}
 			return
 		}
-		for _, s := range specs {
+		for _, s := range ff.Fuels {
+			if checkText(s.Name, maxNameBytes) != nil || checkText(s.Description, maxTitleBytes) != nil {
+				t.Fatalf("fuel name %q or description %q accepted", s.Name, s.Description)
+			}
 			res, err := s.Resolve(m, set)
 			if err != nil || res.Pool == nil {
 				continue
