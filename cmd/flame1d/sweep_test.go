@@ -39,6 +39,9 @@ func committed(t *testing.T, dir string) map[string][]byte {
 	paths, _ := filepath.Glob(filepath.Join(dir, "points", "*", "point.json"))
 	out := map[string][]byte{}
 	for _, p := range paths {
+		if strings.HasPrefix(filepath.Base(filepath.Dir(p)), ".") {
+			continue // a point's folder still being written (an output.Set)
+		}
 		b, err := os.ReadFile(p)
 		if err != nil {
 			t.Fatal(err)
