@@ -4,13 +4,13 @@ import (
 	"fmt"
 	"maps"
 	"math"
-	"os"
 	"path/filepath"
 	"slices"
 	"strings"
 
 	"github.com/BurntSushi/toml"
 
+	"flame1d/internal/infile"
 	"flame1d/internal/tomlpos"
 )
 
@@ -74,9 +74,9 @@ type UncertaintyFactor struct {
 // finite are errors naming the file and line; which reaction a key means
 // is decided against the mechanism (sensitivity.MatchFactors).
 func ReadUncertaintyFactors(path string) ([]UncertaintyFactor, error) {
-	src, err := os.ReadFile(path)
+	src, err := infile.ReadFile(path, infile.Uncertainty)
 	if err != nil {
-		return nil, fmt.Errorf("uncertainty factors: %w", err)
+		return nil, err
 	}
 	return ParseUncertaintyFactors(src, path)
 }

@@ -9,6 +9,8 @@ import (
 	"path/filepath"
 	"strings"
 	"sync"
+
+	"flame1d/internal/infile"
 )
 
 // SetMarker is the file every result set carries: it tells flame1d (and
@@ -118,7 +120,7 @@ func (s *Set) replaceable() error {
 
 // readMarker reads the listing of a set folder's marker file.
 func readMarker(dir string) (map[string]bool, error) {
-	b, err := os.ReadFile(filepath.Join(dir, SetMarker))
+	b, err := infile.ReadFile(filepath.Join(dir, SetMarker), infile.Text)
 	if err != nil {
 		return nil, err
 	}

@@ -40,6 +40,8 @@ var (
 	Record = Kind{"sweep record", 16 << 20}
 	// Correlation is a fitted flame-speed correlation.
 	Correlation = Kind{"correlation file", 1 << 20}
+	// Uncertainty is a side file of rate-constant uncertainty factors.
+	Uncertainty = Kind{"uncertainty-factor file", 16 << 20}
 	// Text is a free-text file such as a mechanism description.
 	Text = Kind{"text file", 1 << 20}
 )
