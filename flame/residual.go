@@ -105,6 +105,8 @@ type problem struct {
 	// properties of the base state and frozenChem its production rates.
 	frozen, frozenChem bool
 	haveTransport      bool
+	// evaluations counts Residual calls, finite-difference ones included.
+	evaluations int
 
 	// per-point state (n entries, or n*K)
 	X     []float64 // mole fractions n*K
@@ -297,6 +299,7 @@ func (p *problem) midpointFluxes(u []float64) {
 // Residual evaluates the discretised equations (see package doc). Signs are
 // such that the transient form is w du/dt = -F(u) with w >= 0.
 func (p *problem) Residual(u, f []float64) error {
+	p.evaluations++
 	if err := p.pointProperties(u); err != nil {
 		return err
 	}
