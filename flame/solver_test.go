@@ -53,3 +53,36 @@ func sameBits(a, b []float64) bool {
 	}
 	return true
 }
+
+// The zero Settings is the documented default: a flame solved with
+// flame.Settings{} is the one solved with DefaultSettings(), to the last
+// bit, thermal diffusion included (the zero value once left it out and
+// gave a different flame speed).
+func TestZeroSettingsAreTheDefaults(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m, s := solverFor(t, "burke2012-hydrogen")
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	zero, err := s.Solve(in, flame.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	def, err := s.Solve(in, flame.DefaultSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sameBits(zero.U, def.U) || !sameBits(zero.X, def.X) {
+		t.Errorf("Settings{}: %d points, m = %.9g; DefaultSettings(): %d points, m = %.9g kg/(m^2 s)",
+			zero.Points(), zero.MassFlux(), def.Points(), def.MassFlux())
+	}
+	noSoret := flame.DefaultSettings()
+	noSoret.NoThermalDiffusion = true
+	other, err := s.Solve(in, noSoret)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if other.MassFlux() == def.MassFlux() {
+		t.Error("NoThermalDiffusion changed nothing: the switch does not reach the equations")
+	}
+}
