@@ -107,6 +107,10 @@ type problem struct {
 	haveTransport      bool
 	// evaluations counts Residual calls, finite-difference ones included.
 	evaluations int
+	// While frozen, the species thermodynamics of the base state: a
+	// perturbed residual recomputes cp_k and h_k only at points whose
+	// temperature was perturbed (one column in B+2 perturbs T).
+	baseT, baseCpk, baseHk []float64
 
 	// per-point state (n entries, or n*K)
 	X     []float64 // mole fractions n*K
@@ -218,12 +222,19 @@ func (p *problem) pointProperties(u []float64) error {
 			X := p.X[j*K : (j+1)*K]
 			cpk := p.cpk[j*K : (j+1)*K]
 			hk := p.hk[j*K : (j+1)*K]
+			if p.frozen && T == p.baseT[j] {
+				copy(cpk, p.baseCpk[j*K:(j+1)*K])
+				copy(hk, p.baseHk[j*K:(j+1)*K])
+			} else {
+				for k := 0; k < K; k++ {
+					th := p.ph.thermo[k]
+					cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
+					hk[k] = th.HRT(T) * thermo.GasConstant * T
+				}
+			}
 			cpMix := 0.0
 			for k := 0; k < K; k++ {
 				X[k] = Y[k] * wm * p.ph.invW[k]
-				th := p.ph.thermo[k]
-				cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
-				hk[k] = th.HRT(T) * thermo.GasConstant * T
 				cpMix += Y[k] * cpk[k]
 				w.conc[k] = rho * Y[k] * p.ph.invW[k]
 			}
@@ -414,6 +425,15 @@ func (p *problem) Jacobian(u, f0 []float64, J *newton.BlockTridiagonal) error {
 	if err := p.Residual(u, f0); err != nil {
 		return err
 	}
+	if p.baseT == nil {
+		K := p.ph.nSpecies
+		p.baseT, p.baseCpk, p.baseHk = make([]float64, p.n), make([]float64, p.n*K), make([]float64, p.n*K)
+	}
+	for j := range p.baseT {
+		p.baseT[j] = u[j*p.b+compT]
+	}
+	copy(p.baseCpk, p.cpk)
+	copy(p.baseHk, p.hk)
 	p.frozen, p.frozenChem = true, true
 	err := newton.FiniteDifferenceJacobian(p.Residual, u, f0, J, 1e-7, 1e-12)
 	p.frozen, p.frozenChem = false, false
