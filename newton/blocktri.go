@@ -75,6 +75,20 @@ func (m *BlockTridiagonal) block(a []float64, j int) []float64 {
 	return a[j*bb : (j+1)*bb : (j+1)*bb]
 }
 
+// AddDiagonal adds d_i to the diagonal entry of unknown i (len(d) = N·B,
+// point-major), for example the w/dt of a pseudo-time step. Existing
+// factors no longer match the matrix.
+func (m *BlockTridiagonal) AddDiagonal(d []float64) {
+	b := m.B
+	for j := range m.N {
+		blk := m.DiagBlock(j)
+		for c, v := range d[j*b : (j+1)*b] {
+			blk[c*b+c] += v
+		}
+	}
+	m.factored = false
+}
+
 // Zero sets every entry of Lower, Diag and Upper to zero and discards any
 // factorisation.
 func (m *BlockTridiagonal) Zero() {

@@ -105,6 +105,17 @@ type Options struct {
 	// tolerance costs iterations that buy nothing. 0 means 1 (as tight as
 	// the steady test); otherwise ≥ 1.
 	TimeStepTolerance float64
+	// ProjectedConvergence applies the convergence test to the step after
+	// projection onto the bounds (see Solve): a state whose remaining
+	// corrections only push unknowns on their bounds further outward counts
+	// as solved. The answer is then a root of the problem restricted to the
+	// bounds, not of F; meant for start-up stages whose result only seeds
+	// a later solve.
+	ProjectedConvergence bool
+	// TimeStepsFirst takes one set of pseudo-time steps before the first
+	// steady Newton attempt: for starts far from the solution, where a
+	// steady attempt can wander into a state time stepping cannot leave.
+	TimeStepsFirst bool
 	// Flush, when non-nil (length block), sets to zero every trial value
 	// whose magnitude is below Flush_c. Exponentially decaying profiles
 	// otherwise reach subnormal numbers (below 2.2e-308), whose arithmetic is
@@ -326,16 +337,18 @@ type solver struct {
 
 	lo, hi []float64 // bounds per component
 
-	J        *BlockTridiagonal
-	jacValid bool // J holds ∂F/∂u at some earlier accepted state
-	factored bool // J's factors match its current values
-	jacAge   int  // accepted steps since J was evaluated
+	J        *BlockTridiagonal // filled by the Jacobian
+	lin      linearSystem      // J, as factored and solved
+	jacValid bool              // J holds ∂F/∂u at some earlier accepted state
+	factored bool              // J's factors match its current values
+	jacAge   int               // accepted steps since J was evaluated
 
 	steadySteps  int  // accepted steady Newton steps, for Event.Iteration
 	haveResidual bool // s.f holds F at the accepted state
 
 	transient bool
 	applied   []float64 // diagonal shift currently added to J.Diag
+	shift     []float64 // scratch: change of the diagonal shift
 	wdt       []float64 // w/dt of the current pseudo-time step
 
 	f, ft, du, dubar, ut, wt, uOld, fOld, fSteady, w []float64
@@ -352,7 +365,8 @@ func newSolver(p Problem, n, b int, opt Options) *solver {
 	for c := range b {
 		s.lo[c], s.hi[c] = opt.bounds(c)
 	}
-	work := make([]float64, 12*size)
+	s.lin = s.J
+	work := make([]float64, 13*size)
 	next := func() []float64 {
 		v := work[:size:size]
 		work = work[size:]
@@ -360,6 +374,7 @@ func newSolver(p Problem, n, b int, opt Options) *solver {
 	}
 	s.f, s.ft, s.du, s.dubar, s.ut, s.wt = next(), next(), next(), next(), next(), next()
 	s.uOld, s.fOld, s.fSteady, s.w, s.applied, s.wdt = next(), next(), next(), next(), next(), next()
+	s.shift = next()
 	s.fdResidual = s.residual
 	return s
 }
@@ -370,10 +385,12 @@ func (s *solver) run(u []float64) error {
 	}
 	s.haveResidual = true
 	s.res.TimeStep = s.opt.TimeStep
-	ok, why := s.newton(u, s.opt.MaxNewtonIterations)
-	if ok {
-		s.res.Converged = true
-		return nil
+	ok, why := false, error(nil)
+	if !s.opt.TimeStepsFirst || s.opt.MaxTimeStepAttempts == 0 {
+		if ok, why = s.newton(u, s.opt.MaxNewtonIterations); ok {
+			s.res.Converged = true
+			return nil
+		}
 	}
 	dt := s.opt.TimeStep
 	defer func() { s.res.TimeStep = dt }()
@@ -454,30 +471,40 @@ func (s *solver) refreshJacobian(u []float64) error {
 	return nil
 }
 
+// linearSystem is what Solve needs from the storage of its Jacobian: a
+// shift of the diagonal (the w/dt of pseudo-time steps), a factorisation,
+// and solves with the factors. BlockTridiagonal implements it.
+type linearSystem interface {
+	// AddDiagonal adds d_i to diagonal entry i (len(d) = N·B).
+	AddDiagonal(d []float64)
+	Factor() error
+	Solve(rhs []float64)
+}
+
 // factor brings the diagonal shift of J to that of the current system
 // (w/dt or none) and factors J if needed.
 func (s *solver) factor() error {
-	b := s.b
-	for j := range s.n {
-		d := s.J.DiagBlock(j)
-		for c := range b {
-			i := j*b + c
-			want := 0.0
-			if s.transient {
-				want = s.wdt[i]
-			}
-			if want != s.applied[i] {
-				d[c*b+c] += want - s.applied[i]
-				s.applied[i] = want
-				s.factored = false
-			}
+	changed := false
+	for i := range s.applied {
+		want := 0.0
+		if s.transient {
+			want = s.wdt[i]
 		}
+		s.shift[i] = want - s.applied[i]
+		if want != s.applied[i] {
+			s.applied[i] = want
+			changed = true
+		}
+	}
+	if changed {
+		s.lin.AddDiagonal(s.shift)
+		s.factored = false
 	}
 	if s.factored {
 		return nil
 	}
 	t0 := time.Now()
-	err := s.J.Factor()
+	err := s.lin.Factor()
 	s.res.FactorTime += time.Since(t0)
 	s.res.Factorizations++
 	if err != nil {
@@ -494,7 +521,7 @@ func (s *solver) step(r, dx []float64) float64 {
 	for i, v := range r {
 		dx[i] = -v
 	}
-	s.J.Solve(dx)
+	s.lin.Solve(dx)
 	s.res.SolveTime += time.Since(t0)
 	return s.norm(dx)
 }
@@ -671,6 +698,9 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			raw = s.step(s.f, s.du)
 		}
 		s0 := s.projectedNorm(u, s.du)
+		if s.opt.ProjectedConvergence && !math.IsNaN(raw) {
+			raw = s0
+		}
 		if s0 == 0 && raw > 0 && !math.IsNaN(raw) && !math.IsInf(raw, 0) {
 			// Every component left is pushed outward at its bound: the
 			// state is on the boundary of the box, not at a root.

@@ -530,3 +530,24 @@ func TestTimeStepTolerance(t *testing.T) {
 		t.Errorf("TimeStepTolerance 0.5: error %v, want one naming the option", err)
 	}
 }
+
+// With ProjectedConvergence a state whose only remaining correction pushes
+// an unknown on its bound outward is accepted: the root of the problem
+// restricted to the bounds. Without it the same state is a failure.
+func TestProjectedConvergence(t *testing.T) {
+	target := []float64{0.5, 0.5, 0.5, -1, 0.5, 0.5}
+	for _, projected := range []bool{false, true} {
+		opt := DefaultOptions(2)
+		opt.Lower[1] = 0
+		opt.MaxTimeStepAttempts = 0
+		opt.ProjectedConvergence = projected
+		x := []float64{0.2, 0.2, 0.2, 0, 0.2, 0.2}
+		_, err := Solve(&shifted{n: 3, b: 2, target: target}, x, opt)
+		if projected != (err == nil) {
+			t.Errorf("ProjectedConvergence %v: error %v", projected, err)
+		}
+		if want := []float64{0.5, 0.5, 0.5, 0, 0.5, 0.5}; maxAbsDiff(x, want) > 1e-12 {
+			t.Errorf("ProjectedConvergence %v: u = %v, want %v", projected, x, want)
+		}
+	}
+}
