@@ -551,3 +551,28 @@ func TestProjectedConvergence(t *testing.T) {
 		}
 	}
 }
+
+// TimeStepsFirst takes pseudo-time steps before any steady Newton step:
+// the first event reported is a time step, and the root is still found.
+func TestTimeStepsFirst(t *testing.T) {
+	p := &linearProblem{target: []float64{1, 2}}
+	opt := DefaultOptions(2)
+	opt.TimeStepsFirst = true
+	var first string
+	opt.Progress = func(e Event) {
+		if first == "" {
+			first = e.Stage
+		}
+	}
+	u := []float64{0, 0}
+	res, err := Solve(p, u, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if first != "timestep" || res.TimeSteps != opt.StepsPerAttempt {
+		t.Errorf("first event %q, %d time steps; want a time step first and %d steps", first, res.TimeSteps, opt.StepsPerAttempt)
+	}
+	if maxAbsDiff(u, p.target) > 1e-9 {
+		t.Errorf("u = %v, want %v", u, p.target)
+	}
+}
