@@ -145,7 +145,7 @@ func anchorRise(set Settings, Tin, Tad float64) float64 {
 func (s *Solver) initialGuess(in Inlet, eq equilibriumState, set Settings, speed float64) (*Solution, error) {
 	K := s.ph.nSpecies
 	if eq.T-in.T < minFlameRise {
-		return nil, fmt.Errorf("no flame to compute: complete combustion of this mixture raises its temperature only %.0f K (adiabatic equilibrium %.0f K), "+
+		return nil, fmt.Errorf("mixture is not flammable: complete combustion raises its temperature only %.0f K (adiabatic equilibrium %.0f K), "+
 			"less than the %.0f K a self-sustaining premixed flame needs; check the equivalence ratio and the fuel/oxidizer composition",
 			eq.T-in.T, eq.T, float64(minFlameRise))
 	}
