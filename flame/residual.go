@@ -107,10 +107,13 @@ type problem struct {
 	haveTransport      bool
 	// evaluations counts Residual calls, finite-difference ones included.
 	evaluations int
-	// While frozen, the species thermodynamics of the base state: a
-	// perturbed residual recomputes cp_k and h_k only at points whose
-	// temperature was perturbed (one column in B+2 perturbs T).
-	baseT, baseCpk, baseHk []float64
+	// Species thermodynamics cache: thermoCpk and thermoHk hold cp_k and
+	// h_k of point j at temperature thermoT[j] (NaN: empty). They depend on
+	// T alone, so a residual reuses them wherever T_j is unchanged; only
+	// unfrozen evaluations refill the cache, so the perturbed residuals of
+	// a finite-difference Jacobian (one column in B perturbs T) recompute
+	// the thermodynamics only where T was perturbed.
+	thermoT, thermoCpk, thermoHk []float64
 
 	// per-point state (n entries, or n*K)
 	X     []float64 // mole fractions n*K
@@ -143,6 +146,10 @@ func newProblem(ph *physics, x []float64, inletT, pressure float64, inletY []flo
 		cp: make([]float64, n), cpk: make([]float64, n*K), hk: make([]float64, n*K),
 		wdot: make([]float64, n*K), rhoD: make([]float64, (n-1)*K), rhoDT: make([]float64, (n-1)*K),
 		lambda: make([]float64, n-1), flux: make([]float64, (n-1)*K), fixedT: make([]float64, n),
+		thermoT: make([]float64, n), thermoCpk: make([]float64, n*K), thermoHk: make([]float64, n*K),
+	}
+	for j := range p.thermoT {
+		p.thermoT[j] = math.NaN()
 	}
 	for i := 0; i < nWorkers; i++ {
 		w := &worker{
@@ -222,14 +229,19 @@ func (p *problem) pointProperties(u []float64) error {
 			X := p.X[j*K : (j+1)*K]
 			cpk := p.cpk[j*K : (j+1)*K]
 			hk := p.hk[j*K : (j+1)*K]
-			if p.frozen && T == p.baseT[j] {
-				copy(cpk, p.baseCpk[j*K:(j+1)*K])
-				copy(hk, p.baseHk[j*K:(j+1)*K])
+			if T == p.thermoT[j] {
+				copy(cpk, p.thermoCpk[j*K:(j+1)*K])
+				copy(hk, p.thermoHk[j*K:(j+1)*K])
 			} else {
 				for k := 0; k < K; k++ {
 					th := p.ph.thermo[k]
 					cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
 					hk[k] = th.HRT(T) * thermo.GasConstant * T
+				}
+				if !p.frozen {
+					copy(p.thermoCpk[j*K:(j+1)*K], cpk)
+					copy(p.thermoHk[j*K:(j+1)*K], hk)
+					p.thermoT[j] = T
 				}
 			}
 			cpMix := 0.0
@@ -425,15 +437,6 @@ func (p *problem) Jacobian(u, f0 []float64, J *newton.BlockTridiagonal) error {
 	if err := p.Residual(u, f0); err != nil {
 		return err
 	}
-	if p.baseT == nil {
-		K := p.ph.nSpecies
-		p.baseT, p.baseCpk, p.baseHk = make([]float64, p.n), make([]float64, p.n*K), make([]float64, p.n*K)
-	}
-	for j := range p.baseT {
-		p.baseT[j] = u[j*p.b+compT]
-	}
-	copy(p.baseCpk, p.cpk)
-	copy(p.baseHk, p.hk)
 	p.frozen, p.frozenChem = true, true
 	err := newton.FiniteDifferenceJacobian(p.Residual, u, f0, J, 1e-7, 1e-12)
 	p.frozen, p.frozenChem = false, false
