@@ -16,7 +16,8 @@ import (
 // it is retried with the guess four times lower or higher, the side read
 // from the failure: a mass flux that fell during the failed attempt asks
 // for a slower start, one that rose for a faster one. Only if all three
-// fail is the first guess tried on finer start-up grids.
+// fail is the first guess tried once more, allowed to halve every interval
+// of the grid when a solve fails.
 func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	start := time.Now()
 	set = withDefaults(set)
@@ -33,7 +34,7 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	var stats Stats
 	speed := startSpeed(in, eq.T)
 	tried := []float64{speed}
-	sol, err := s.coldStart(in, eq, set, speed, false, &stats)
+	sol, err := s.coldStart(in, eq, set, speed, firstStart, &stats)
 	if err != nil && errors.Is(err, ErrNotConverged) {
 		first := err
 		lower, higher := speed/coldStartRetryFactor, speed*coldStartRetryFactor
@@ -44,22 +45,20 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 		for _, v := range order {
 			s.report(set, "restart", 0, fmt.Sprintf("start-up with a %.2g m/s flame-speed guess failed; retrying with %.2g m/s", tried[len(tried)-1], v))
 			tried = append(tried, v)
-			if sol, err = s.coldStart(in, eq, set, v, true, &stats); err == nil || !errors.Is(err, ErrNotConverged) {
+			if sol, err = s.coldStart(in, eq, set, v, retry, &stats); err == nil || !errors.Is(err, ErrNotConverged) {
 				break
 			}
 		}
-		// Last resort: the first guess on start-up grids two and four times
-		// finer (thin high-pressure flames can be lost between the points
-		// of the start-up grid).
-		finer := set
-		for f := 2; f <= 4 && err != nil && errors.Is(err, ErrNotConverged); f *= 2 {
-			finer.InitialPoints = f * set.InitialPoints
-			s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s on %d start-up points", speed, finer.InitialPoints))
-			sol, err = s.coldStart(in, eq, finer, speed, true, &stats)
+		// Last resort: the first guess again, now allowed to halve every
+		// interval of the grid (twice) when a solve fails: thin flames
+		// (high pressure) can be lost between the points of a coarse grid.
+		if err != nil && errors.Is(err, ErrNotConverged) {
+			s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s, refining the whole grid on failure", speed))
+			sol, err = s.coldStart(in, eq, set, speed, lastResort, &stats)
 		}
 		if err != nil && errors.Is(err, ErrNotConverged) {
-			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %.2g, %.2g and %.2g m/s on %d points, and %.2g m/s on %d and %d points)",
-				first, tried[0], tried[1], tried[2], set.InitialPoints, speed, 2*set.InitialPoints, 4*set.InitialPoints)
+			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %.2g, %.2g and %.2g m/s, and %.2g m/s with whole-grid refinement)",
+				first, tried[0], tried[1], tried[2], speed)
 		}
 	}
 	if err != nil {
@@ -69,6 +68,15 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	sol.Stats = stats
 	return sol, nil
 }
+
+// startKind says which attempt of a cold start this is.
+type startKind int
+
+const (
+	firstStart startKind = iota // the estimated guess, steady Newton first
+	retry                       // another guess, pseudo-time steps first
+	lastResort                  // as retry, and whole-grid halving allowed
+)
 
 // coldStartRetryFactor is the ratio between the first flame-speed guess of a
 // cold start and the retries.
@@ -92,10 +100,11 @@ func startSpeed(in Inlet, Tad float64) float64 {
 // species on the fixed temperature profile, then runs the full refinement
 // loop. A retry (after a failed start) begins the first full solve with
 // pseudo-time steps instead of a steady Newton attempt, which from a poor
-// start can wander into a state time stepping cannot leave. A failed start is not retried on a halved grid: a cold start that
-// fails is better restarted with another flame-speed guess. On failure the
-// returned solution, if any, is the last state reached.
-func (s *Solver) coldStart(in Inlet, eq equilibriumState, set Settings, speed float64, retry bool, stats *Stats) (*Solution, error) {
+// start can wander into a state time stepping cannot leave; only the last
+// resort may halve the whole grid after a failed solve (dear, and rarely
+// what a failed start needs). On failure the returned solution, if any, is
+// the last state reached.
+func (s *Solver) coldStart(in Inlet, eq equilibriumState, set Settings, speed float64, kind startKind, stats *Stats) (*Solution, error) {
 	guess, err := s.initialGuess(in, eq, set, speed)
 	if err != nil {
 		return nil, err
@@ -115,7 +124,10 @@ func (s *Solver) coldStart(in Inlet, eq equilibriumState, set Settings, speed fl
 	// The energy equation changes the problem's time scales: its
 	// pseudo-time steps start afresh.
 	st.timeStep = 0
-	st.timeStepsFirst = retry
+	st.timeStepsFirst = kind != firstStart
+	if kind == lastResort {
+		st.regrids = 2
+	}
 	return s.refineLoop(guess, st)
 }
 

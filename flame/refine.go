@@ -24,6 +24,9 @@ type stage struct {
 	// timeStepsFirst: the next solve starts with pseudo-time steps
 	// (newton.Options.TimeStepsFirst); cleared after it.
 	timeStepsFirst bool
+	// regrids is the number of whole-grid halvings a failed solve of the
+	// refinement loop may still use (last-resort cold starts only).
+	regrids int
 }
 
 // newtonSolve solves pr from u, to looseRelTol while loose (a grid still
@@ -114,7 +117,20 @@ func (s *Solver) refineLoop(sol *Solution, st *stage) (*Solution, error) {
 		// criteria, and stay on while the grid is refined further.
 		pr.central = set.CentralConvection && centralOn
 		s.report(set, "solve", sol.Points(), "full equations")
+		var before []float64
+		if st.regrids > 0 {
+			before = append(before, sol.U...)
+		}
 		if err := s.newtonSolve(st, pr, sol.U, !tight); err != nil {
+			// On a last-resort start, a grid too coarse for the front is
+			// the likely cause: halve every interval, go back to the state
+			// before the attempt and try again.
+			if st.regrids > 0 && 2*sol.Points() <= set.Grid.MaxPoints {
+				st.regrids--
+				sol.X, sol.U = bisectAll(sol.X, before, pr.b)
+				s.report(set, "regrid", sol.Points(), "solve failed; every interval halved and retried")
+				continue
+			}
 			return sol, fmt.Errorf("%w on %d points: %v", ErrNotConverged, sol.Points(), err)
 		}
 		if iter >= set.MaxRefinements {
@@ -206,4 +222,22 @@ func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
 		s.report(set, "extend", len(sol.X), "outlet end not flat: domain extended downstream")
 	}
 	return extended
+}
+
+// bisectAll inserts the midpoint of every interval, interpolating linearly.
+func bisectAll(x, u []float64, b int) ([]float64, []float64) {
+	n := len(x)
+	nx := make([]float64, 0, 2*n-1)
+	nu := make([]float64, 0, (2*n-1)*b)
+	for j := 0; j < n; j++ {
+		if j > 0 {
+			nx = append(nx, 0.5*(x[j-1]+x[j]))
+			for c := 0; c < b; c++ {
+				nu = append(nu, 0.5*(u[(j-1)*b+c]+u[j*b+c]))
+			}
+		}
+		nx = append(nx, x[j])
+		nu = append(nu, u[j*b:(j+1)*b]...)
+	}
+	return nx, nu
 }

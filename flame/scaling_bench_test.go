@@ -73,10 +73,10 @@ func BenchmarkScaling(b *testing.B) {
 					}
 					tr, tj, tf = tr+t1.Sub(t0), tj+t2.Sub(t1), tf+time.Since(t2)
 				}
-				per := float64(b.N) * float64(pr.n) / 1e6 // µs per point
-				b.ReportMetric(float64(tr.Nanoseconds())/per/1e3, "residual-us/point")
-				b.ReportMetric(float64(tj.Nanoseconds())/per/1e3, "jacobian-us/point")
-				b.ReportMetric(float64(tf.Nanoseconds())/per/1e3, "factor-us/point")
+				perPoint := func(d time.Duration) float64 { return float64(d.Microseconds()) / float64(b.N*pr.n) }
+				b.ReportMetric(perPoint(tr), "residual-us/point")
+				b.ReportMetric(perPoint(tj), "jacobian-us/point")
+				b.ReportMetric(perPoint(tf), "factor-us/point")
 			})
 		}
 	}
