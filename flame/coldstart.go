@@ -49,16 +49,23 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 				break
 			}
 		}
-		// Last resort: the first guess again, now allowed to halve every
-		// interval of the grid (twice) when a solve fails: thin flames
-		// (high pressure) can be lost between the points of a coarse grid.
+		// Last resort: the estimate again, or the 0.4 m/s it is calibrated
+		// to when that is more than twice away (the estimate knows nothing
+		// of a fuel's own chemistry and diffusion: lean hydrogen burns ten
+		// times faster than its adiabatic temperature suggests), now allowed
+		// to halve every interval of the grid (twice) when a solve fails:
+		// thin flames can be lost between the points of a coarse grid.
+		last := speed
+		if speed > 2*referenceSpeed || speed < referenceSpeed/2 {
+			last = referenceSpeed
+		}
 		if err != nil && errors.Is(err, ErrNotConverged) {
-			s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s, refining the whole grid on failure", speed))
-			sol, err = s.coldStart(in, eq, set, speed, lastResort, &stats)
+			s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s, refining the whole grid on failure", last))
+			sol, err = s.coldStart(in, eq, set, last, lastResort, &stats)
 		}
 		if err != nil && errors.Is(err, ErrNotConverged) {
 			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %.2g, %.2g and %.2g m/s, and %.2g m/s with whole-grid refinement)",
-				first, tried[0], tried[1], tried[2], speed)
+				first, tried[0], tried[1], tried[2], last)
 		}
 	}
 	if err != nil {
@@ -82,18 +89,23 @@ const (
 // cold start and the retries.
 const coldStartRetryFactor = 4
 
+// referenceSpeed is the start-up flame speed (m/s) startSpeed gives
+// stoichiometric methane/air at 298 K and 1 atm.
+const referenceSpeed = 0.4
+
 // startSpeed estimates the flame speed of the inlet (m/s) for the start-up
 // profiles from its adiabatic temperature Tad (K): 0.4 m/s at the adiabatic
 // temperature of stoichiometric methane/air at 298 K and 1 atm (2226 K,
 // GRI-Mech 3.0 with this solver; S_L there is 0.36 m/s), scaled by the
 // Zeldovich factor exp(-E/(2 R Tad)) with the overall activation energy of
 // adaptGuess and by P^-1/2 (common practice, no source), and held within
-// 0.05-3 m/s. Only the start depends on it; lean and rich mixtures, whose
-// lower adiabatic temperatures make them slower, start nearer their answer.
+// 0.005-3 m/s. Only the start depends on it; lean and rich mixtures, whose
+// lower adiabatic temperatures make them slower, start nearer their answer
+// (lean CH4/air at 40 atm burns at well under 0.05 m/s).
 func startSpeed(in Inlet, Tad float64) float64 {
-	const refSpeed, refTad = 0.4, 2226.0 // m/s, K
-	v := refSpeed * math.Exp(-overallActivation/(2*thermo.GasConstant)*(1/Tad-1/refTad)) * math.Sqrt(thermo.OneAtmosphere/in.P)
-	return math.Min(math.Max(v, 0.05), 3)
+	const refTad = 2226.0 // K
+	v := referenceSpeed * math.Exp(-overallActivation/(2*thermo.GasConstant)*(1/Tad-1/refTad)) * math.Sqrt(thermo.OneAtmosphere/in.P)
+	return math.Min(math.Max(v, 0.005), 3)
 }
 
 // coldStart builds the start-up profiles for a flame-speed guess, solves the

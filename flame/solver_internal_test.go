@@ -199,7 +199,7 @@ func TestExtendDomain(t *testing.T) {
 func sameFloat(x, y float64) bool { return math.Float64bits(x) == math.Float64bits(y) }
 
 // startSpeed: 0.4 m/s at the reference adiabatic temperature and 1 atm,
-// slower for cooler flames, P^-1/2, clamped to 0.05-3 m/s.
+// slower for cooler flames, P^-1/2, clamped to 0.005-3 m/s.
 func TestStartSpeed(t *testing.T) {
 	atm := Inlet{T: 298, P: thermo.OneAtmosphere}
 	if v := startSpeed(atm, 2226); math.Abs(v-0.4) > 1e-12 {
@@ -212,8 +212,8 @@ func TestStartSpeed(t *testing.T) {
 	if v := startSpeed(hp, 2226); math.Abs(v-0.2) > 1e-12 {
 		t.Errorf("4 atm: %g m/s, want 0.2", v)
 	}
-	if v := startSpeed(atm, 900); v != 0.05 {
-		t.Errorf("900 K: %g m/s, want the floor 0.05", v)
+	if v := startSpeed(atm, 700); v != 0.005 {
+		t.Errorf("700 K: %g m/s, want the floor 0.005", v)
 	}
 }
 
