@@ -79,9 +79,11 @@ type GridSettings struct {
 	DomainLength                 float64 // m
 }
 
-// SolverSettings mirror the [solver] table; zero means "solver default".
+// SolverSettings mirror the [solver] table; zero means "solver default"
+// (flame.DefaultSettings holds the values).
 type SolverSettings struct {
-	ThermalDiffusion bool
+	// NoThermalDiffusion is set by thermal_diffusion = false.
+	NoThermalDiffusion bool
 	// CentralConvection selects central convective face values ("central",
 	// second order) instead of the default upwind ones ("upwind").
 	CentralConvection bool
@@ -300,9 +302,9 @@ func Parse(src []byte, file string) (*Case, error) {
 	}
 
 	s := r.Solver
-	c.Solver = SolverSettings{ThermalDiffusion: true, RelativeTol: valueOr(s.RelativeTol, 0), Workers: s.Workers}
+	c.Solver = SolverSettings{RelativeTol: valueOr(s.RelativeTol, 0), Workers: s.Workers}
 	if s.ThermalDiffusion != nil {
-		c.Solver.ThermalDiffusion = *s.ThermalDiffusion
+		c.Solver.NoThermalDiffusion = !*s.ThermalDiffusion
 	}
 	switch s.Convection {
 	case "", "upwind":

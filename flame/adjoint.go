@@ -118,7 +118,7 @@ func (s *Solver) Sensitivities(sol *Solution, set Settings, req SensitivityReque
 	}
 
 	J := newton.NewBlockTridiagonal(n, b)
-	pr.midpointTransport = newMidpointTransport(ph.transport, n-1, K, set.ThermalDiffusion)
+	pr.midpointTransport = newMidpointTransport(ph.transport, n-1, K, !set.NoThermalDiffusion)
 	if err := residual(u, f0); err != nil {
 		return nil, fmt.Errorf("sensitivities: residual at the solution: %w", err)
 	}
@@ -391,7 +391,7 @@ func (s *Solver) SolveOnGrid(prev *Solution, in Inlet, set Settings) (*Solution,
 	pr := s.problemFor(&sol, set)
 	pr.central = set.CentralConvection
 	res, err := newton.Solve(pr, sol.U, s.newtonOptions(set, pr.b))
-	sol.Stats.add(res)
+	sol.Stats.add(res, pr.evaluations)
 	sol.Stats.WallTime = time.Since(start)
 	if err != nil {
 		return nil, fmt.Errorf("%w on the fixed grid of %d points: %v", ErrNotConverged, sol.Points(), err)

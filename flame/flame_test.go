@@ -190,8 +190,18 @@ func hydrogenGridSeries(t *testing.T, central bool) ([3]float64, *flame.Solution
 		S[i], last = p.FlameSpeed, sol
 		t.Logf("central=%v, criteria x%.2f: S_L = %.5f m/s on %d points", central, f, p.FlameSpeed, sol.Points())
 	}
-	if S[1] != S[2] && S[0] != S[1] {
-		t.Logf("observed order of grid convergence (central=%v): %.2f", central, math.Log2(math.Abs((S[0]-S[1])/(S[1]-S[2]))))
+	order := math.Log2(math.Abs((S[0] - S[1]) / (S[1] - S[2])))
+	t.Logf("observed order of grid convergence (central=%v): %.2f", central, order)
+	// First-order upwind faces and second-order central ones: the observed
+	// order on grids from criteria halved twice lies near 1 and 2
+	// (measured 1.06 and 1.85); the bands allow the pre-asymptotic
+	// spread of a three-grid estimate (Roache 1998, ch. 5).
+	lo, hi := 0.7, 1.5
+	if central {
+		lo, hi = 1.5, 2.6
+	}
+	if !(order >= lo && order <= hi) {
+		t.Errorf("central=%v: observed order %.2f, want %.1f-%.1f", central, order, lo, hi)
 	}
 	return S, last
 }

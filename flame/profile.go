@@ -90,7 +90,7 @@ func (s *Solver) Profile(sol *Solution) (*Profile, error) {
 func (s *Solver) ElementFluxes(sol *Solution, set Settings) (elements []string, flux [][]float64, err error) {
 	ph := s.ph
 	K := ph.nSpecies
-	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
+	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, !set.NoThermalDiffusion, 1)
 	pr.central = set.CentralConvection
 	pr.setDiffusion(set.Diffusion)
 	if err := pr.pointProperties(sol.U); err != nil {
@@ -134,7 +134,7 @@ func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, 
 	if kf < 0 {
 		return nil, fmt.Errorf("pyrolysis yields: fuel species %q not in the mechanism", fuelName)
 	}
-	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, set.ThermalDiffusion, 1)
+	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, !set.NoThermalDiffusion, 1)
 	pr.central = set.CentralConvection
 	pr.setDiffusion(set.Diffusion)
 	if err := pr.pointProperties(sol.U); err != nil {

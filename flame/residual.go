@@ -109,6 +109,15 @@ type problem struct {
 	// properties of the base state and frozenChem its production rates.
 	frozen, frozenChem bool
 	haveTransport      bool
+	// evaluations counts Residual calls, finite-difference ones included.
+	evaluations int
+	// Species thermodynamics cache: thermoCpk and thermoHk hold cp_k and
+	// h_k of point j at temperature thermoT[j] (NaN: empty). They depend on
+	// T alone, so a residual reuses them wherever T_j is unchanged; only
+	// unfrozen evaluations refill the cache, so the perturbed residuals of
+	// a finite-difference Jacobian (one column in B perturbs T) recompute
+	// the thermodynamics only where T was perturbed.
+	thermoT, thermoCpk, thermoHk []float64
 
 	// per-point state (n entries, or n*K)
 	X     []float64 // mole fractions n*K
@@ -141,6 +150,10 @@ func newProblem(ph *physics, x []float64, inletT, pressure float64, inletY []flo
 		cp: make([]float64, n), cpk: make([]float64, n*K), hk: make([]float64, n*K),
 		wdot: make([]float64, n*K), rhoD: make([]float64, (n-1)*K), rhoDT: make([]float64, (n-1)*K),
 		lambda: make([]float64, n-1), flux: make([]float64, (n-1)*K), fixedT: make([]float64, n),
+		thermoT: make([]float64, n), thermoCpk: make([]float64, n*K), thermoHk: make([]float64, n*K),
+	}
+	for j := range p.thermoT {
+		p.thermoT[j] = math.NaN()
 	}
 	for i := 0; i < nWorkers; i++ {
 		w := &worker{
@@ -220,12 +233,24 @@ func (p *problem) pointProperties(u []float64) error {
 			X := p.X[j*K : (j+1)*K]
 			cpk := p.cpk[j*K : (j+1)*K]
 			hk := p.hk[j*K : (j+1)*K]
+			if T == p.thermoT[j] {
+				copy(cpk, p.thermoCpk[j*K:(j+1)*K])
+				copy(hk, p.thermoHk[j*K:(j+1)*K])
+			} else {
+				for k := 0; k < K; k++ {
+					th := p.ph.thermo[k]
+					cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
+					hk[k] = th.HRT(T) * thermo.GasConstant * T
+				}
+				if !p.frozen {
+					copy(p.thermoCpk[j*K:(j+1)*K], cpk)
+					copy(p.thermoHk[j*K:(j+1)*K], hk)
+					p.thermoT[j] = T
+				}
+			}
 			cpMix := 0.0
 			for k := 0; k < K; k++ {
 				X[k] = Y[k] * wm * p.ph.invW[k]
-				th := p.ph.thermo[k]
-				cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
-				hk[k] = th.HRT(T) * thermo.GasConstant * T
 				cpMix += Y[k] * cpk[k]
 				w.conc[k] = rho * Y[k] * p.ph.invW[k]
 			}
@@ -314,6 +339,7 @@ func (p *problem) midpointState(w *worker, u []float64, j int) (T, wMean float64
 // Residual evaluates the discretised equations (see package doc). Signs are
 // such that the transient form is w du/dt = -F(u) with w >= 0.
 func (p *problem) Residual(u, f []float64) error {
+	p.evaluations++
 	if err := p.pointProperties(u); err != nil {
 		return err
 	}

@@ -668,6 +668,12 @@ func (p Plan) Apply(x, u []float64, block int) (newX, newU []float64) {
 // Plan.Apply). changed reports whether the grid changed. When it did not, or
 // on error, the input slices themselves are returned.
 func Refine(x, u []float64, block int, components []int, keep []float64, c Criteria) (newX, newU []float64, changed bool, err error) {
+	return c.Refine(x, u, block, components, keep)
+}
+
+// Refine is the function Refine with c as its criteria; it lets Criteria
+// serve where a solver takes any refinement rule.
+func (c Criteria) Refine(x, u []float64, block int, components []int, keep []float64) (newX, newU []float64, changed bool, err error) {
 	p, err := Analyse(x, u, block, components, keep, c)
 	if err != nil {
 		return x, u, false, err

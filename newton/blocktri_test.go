@@ -270,3 +270,23 @@ func TestFactorAcceptsLargeOffDiagonalRows(t *testing.T) {
 		t.Errorf("x = %v, want [1e20 1]", x)
 	}
 }
+
+// AddDiagonal shifts exactly the diagonal: (m + diag(d))·x = m·x + d⊙x.
+func TestAddDiagonal(t *testing.T) {
+	m := randomBlockTridiagonal(rand.New(rand.NewPCG(13, 14)), 6, 3, true)
+	x, d := make([]float64, 18), make([]float64, 18)
+	for i := range x {
+		x[i], d[i] = float64(i%4)-1.5, float64(i)
+	}
+	want := make([]float64, 18)
+	m.MulVec(x, want)
+	for i := range want {
+		want[i] += d[i] * x[i]
+	}
+	m.AddDiagonal(d)
+	got := make([]float64, 18)
+	m.MulVec(x, got)
+	if e := maxAbsDiff(got, want); e > 1e-13 {
+		t.Errorf("after AddDiagonal: m·x off by %.3g", e)
+	}
+}

@@ -98,6 +98,24 @@ type Options struct {
 	// StepsPerAttempt pseudo-time steps are taken whenever steady Newton
 	// fails, at most MaxTimeStepAttempts times (0 disables time stepping).
 	StepsPerAttempt, MaxTimeStepAttempts int
+	// TimeStepTolerance loosens the convergence test inside a pseudo-time
+	// step: its Newton iteration stops once the scaled step norm is below
+	// TimeStepTolerance instead of 1. A pseudo-time step only has to move
+	// the state towards the steady solution; solving each one to the final
+	// tolerance costs iterations that buy nothing. 0 means 1 (as tight as
+	// the steady test); otherwise ≥ 1.
+	TimeStepTolerance float64
+	// ProjectedConvergence applies the convergence test to the step after
+	// projection onto the bounds (see Solve): a state whose remaining
+	// corrections only push unknowns on their bounds further outward counts
+	// as solved. The answer is then a root of the problem restricted to the
+	// bounds, not of F; meant for start-up stages whose result only seeds
+	// a later solve.
+	ProjectedConvergence bool
+	// TimeStepsFirst takes one set of pseudo-time steps before the first
+	// steady Newton attempt: for starts far from the solution, where a
+	// steady attempt can wander into a state time stepping cannot leave.
+	TimeStepsFirst bool
 	// Flush, when non-nil (length block), sets to zero every trial value
 	// whose magnitude is below Flush_c. Exponentially decaying profiles
 	// otherwise reach subnormal numbers (below 2.2e-308), whose arithmetic is
@@ -172,6 +190,9 @@ func (o *Options) validate(b int) error {
 	if o.MaxJacobianAge < 1 {
 		return fmt.Errorf("MaxJacobianAge = %d, want ≥ 1", o.MaxJacobianAge)
 	}
+	if !(o.TimeStepTolerance == 0 || o.TimeStepTolerance >= 1) || math.IsInf(o.TimeStepTolerance, 0) {
+		return fmt.Errorf("TimeStepTolerance = %g, want 0 (meaning 1) or finite and ≥ 1", o.TimeStepTolerance)
+	}
 	if o.MaxTimeStepAttempts < 0 {
 		return fmt.Errorf("MaxTimeStepAttempts = %d, want ≥ 0", o.MaxTimeStepAttempts)
 	}
@@ -209,7 +230,8 @@ type Result struct {
 	NewtonIterations, TimeSteps int
 	// JacobianEvaluations, Factorizations and ResidualEvaluations count
 	// calls; ResidualEvaluations includes those made by the
-	// finite-difference Jacobian.
+	// finite-difference Jacobian, but not those a JacobianEvaluator makes
+	// on its own (the problem counts those).
 	JacobianEvaluations, Factorizations, ResidualEvaluations int
 	// ResidualTime is spent in Problem.Residual (all calls), JacobianTime
 	// in building Jacobians (including the residual calls of finite
@@ -220,6 +242,10 @@ type Result struct {
 	// ResidualNorm is max_i |F_i| at the returned u (+Inf if the residual
 	// could not be evaluated at the initial state).
 	StepNorm, ResidualNorm float64
+	// TimeStep is the pseudo-time step a later solve of a nearby problem
+	// may start from: the step the solver would have taken next (grown after
+	// the last accepted step), or Options.TimeStep if no step was taken.
+	TimeStep float64
 }
 
 const (
@@ -311,16 +337,18 @@ type solver struct {
 
 	lo, hi []float64 // bounds per component
 
-	J        *BlockTridiagonal
-	jacValid bool // J holds ∂F/∂u at some earlier accepted state
-	factored bool // J's factors match its current values
-	jacAge   int  // accepted steps since J was evaluated
+	J        *BlockTridiagonal // filled by the Jacobian
+	lin      linearSystem      // J, as factored and solved
+	jacValid bool              // J holds ∂F/∂u at some earlier accepted state
+	factored bool              // J's factors match its current values
+	jacAge   int               // accepted steps since J was evaluated
 
 	steadySteps  int  // accepted steady Newton steps, for Event.Iteration
 	haveResidual bool // s.f holds F at the accepted state
 
 	transient bool
 	applied   []float64 // diagonal shift currently added to J.Diag
+	shift     []float64 // scratch: change of the diagonal shift
 	wdt       []float64 // w/dt of the current pseudo-time step
 
 	f, ft, du, dubar, ut, wt, uOld, fOld, fSteady, w []float64
@@ -337,7 +365,8 @@ func newSolver(p Problem, n, b int, opt Options) *solver {
 	for c := range b {
 		s.lo[c], s.hi[c] = opt.bounds(c)
 	}
-	work := make([]float64, 12*size)
+	s.lin = s.J
+	work := make([]float64, 13*size)
 	next := func() []float64 {
 		v := work[:size:size]
 		work = work[size:]
@@ -345,6 +374,7 @@ func newSolver(p Problem, n, b int, opt Options) *solver {
 	}
 	s.f, s.ft, s.du, s.dubar, s.ut, s.wt = next(), next(), next(), next(), next(), next()
 	s.uOld, s.fOld, s.fSteady, s.w, s.applied, s.wdt = next(), next(), next(), next(), next(), next()
+	s.shift = next()
 	s.fdResidual = s.residual
 	return s
 }
@@ -354,12 +384,16 @@ func (s *solver) run(u []float64) error {
 		return fmt.Errorf("%w: residual at the initial state: %w", ErrNotConverged, err)
 	}
 	s.haveResidual = true
-	ok, why := s.newton(u, s.opt.MaxNewtonIterations)
-	if ok {
-		s.res.Converged = true
-		return nil
+	s.res.TimeStep = s.opt.TimeStep
+	ok, why := false, error(nil)
+	if !s.opt.TimeStepsFirst || s.opt.MaxTimeStepAttempts == 0 {
+		if ok, why = s.newton(u, s.opt.MaxNewtonIterations); ok {
+			s.res.Converged = true
+			return nil
+		}
 	}
 	dt := s.opt.TimeStep
+	defer func() { s.res.TimeStep = dt }()
 	for attempt := 1; attempt <= s.opt.MaxTimeStepAttempts; attempt++ {
 		if err := s.timeSteps(u, &dt); err != nil {
 			return fmt.Errorf("%w: pseudo-time stepping (attempt %d, %d steps taken): %w", ErrNotConverged, attempt, s.res.TimeSteps, err)
@@ -437,30 +471,40 @@ func (s *solver) refreshJacobian(u []float64) error {
 	return nil
 }
 
+// linearSystem is what Solve needs from the storage of its Jacobian: a
+// shift of the diagonal (the w/dt of pseudo-time steps), a factorisation,
+// and solves with the factors. BlockTridiagonal implements it.
+type linearSystem interface {
+	// AddDiagonal adds d_i to diagonal entry i (len(d) = N·B).
+	AddDiagonal(d []float64)
+	Factor() error
+	Solve(rhs []float64)
+}
+
 // factor brings the diagonal shift of J to that of the current system
 // (w/dt or none) and factors J if needed.
 func (s *solver) factor() error {
-	b := s.b
-	for j := range s.n {
-		d := s.J.DiagBlock(j)
-		for c := range b {
-			i := j*b + c
-			want := 0.0
-			if s.transient {
-				want = s.wdt[i]
-			}
-			if want != s.applied[i] {
-				d[c*b+c] += want - s.applied[i]
-				s.applied[i] = want
-				s.factored = false
-			}
+	changed := false
+	for i := range s.applied {
+		want := 0.0
+		if s.transient {
+			want = s.wdt[i]
 		}
+		s.shift[i] = want - s.applied[i]
+		if want != s.applied[i] {
+			s.applied[i] = want
+			changed = true
+		}
+	}
+	if changed {
+		s.lin.AddDiagonal(s.shift)
+		s.factored = false
 	}
 	if s.factored {
 		return nil
 	}
 	t0 := time.Now()
-	err := s.J.Factor()
+	err := s.lin.Factor()
 	s.res.FactorTime += time.Since(t0)
 	s.res.Factorizations++
 	if err != nil {
@@ -477,9 +521,56 @@ func (s *solver) step(r, dx []float64) float64 {
 	for i, v := range r {
 		dx[i] = -v
 	}
-	s.J.Solve(dx)
+	s.lin.Solve(dx)
 	s.res.SolveTime += time.Since(t0)
 	return s.norm(dx)
+}
+
+// outward reports whether component i of the step dx pushes an unknown
+// sitting on one of its bounds at u further outward.
+func (s *solver) outward(u, dx []float64, i int) bool {
+	c := i % s.b
+	return (dx[i] < 0 && u[i] <= s.lo[c]) || (dx[i] > 0 && u[i] >= s.hi[c])
+}
+
+// project zeroes the components of the step dx that push an unknown sitting
+// on one of its bounds further outward: the step is projected onto the
+// directions the bounds allow (projected Newton; Kelley, "Iterative Methods
+// for Optimization", SIAM 1999, §5.5). The other components keep their full
+// length, so one unknown at its bound no longer shortens the whole step as a
+// single damping factor set by the tightest bound did.
+func (s *solver) project(u, dx []float64) {
+	for i := range dx {
+		if s.outward(u, dx, i) {
+			dx[i] = 0
+		}
+	}
+}
+
+// largest returns the index of the largest scaled component of dx.
+func (s *solver) largest(dx []float64) int {
+	at, m := 0, -1.0
+	for i, v := range dx {
+		if a := math.Abs(v) * s.wt[i]; a > m {
+			at, m = i, a
+		}
+	}
+	return at
+}
+
+// projectedNorm is the scaled norm of dx projected at u, leaving dx as is.
+func (s *solver) projectedNorm(u, dx []float64) float64 {
+	m := 0.0
+	for i, v := range dx {
+		if s.outward(u, dx, i) {
+			continue
+		}
+		a := math.Abs(v) * s.wt[i]
+		if a > m || math.IsNaN(a) {
+			m = a
+		}
+	}
+	return m
 }
 
 // setWeights sets the scaling 1/(RelTol_c·|u_i| + AbsTol_c) at u.
@@ -505,32 +596,8 @@ func (s *solver) norm(x []float64) float64 {
 	return m
 }
 
-// boundLimit returns the largest λ ≤ 1 with u + λ·du inside the bounds and
-// the index of the unknown that limits it (−1 if none does).
-func (s *solver) boundLimit(u, du []float64) (float64, int) {
-	lam, at := 1.0, -1
-	b := s.b
-	for j := range s.n {
-		for c := range b {
-			i := j*b + c
-			var l float64
-			if t := u[i] + du[i]; t < s.lo[c] {
-				l = (s.lo[c] - u[i]) / du[i]
-			} else if t > s.hi[c] {
-				l = (s.hi[c] - u[i]) / du[i]
-			} else {
-				continue
-			}
-			if l < lam {
-				lam, at = max(l, 0), i
-			}
-		}
-	}
-	return lam, at
-}
-
-// trial sets ut = u + λ·du, clipped to the bounds against rounding and
-// flushed to zero below Options.Flush.
+// trial sets ut = u + λ·du projected onto the bounds (each unknown clipped
+// to its interval) and flushed to zero below Options.Flush.
 func (s *solver) trial(u, du []float64, lam float64) {
 	b := s.b
 	flush := s.opt.Flush
@@ -575,7 +642,6 @@ type newtonFailure struct {
 	lam      float64 // damping of the last trial
 	theta    float64 // contraction of the last trial
 	s0       float64 // norm of the last undamped step
-	at       int     // unknown limiting the step at a bound
 	trialErr error   // residual error at the last trial point
 }
 
@@ -583,7 +649,6 @@ const (
 	failNone = iota
 	failTrial
 	failMonotonicity
-	failBound
 	failIterations
 )
 
@@ -593,8 +658,6 @@ func (s *solver) failure(nf *newtonFailure, maxIter int) error {
 		return fmt.Errorf("residual failed at every trial point down to damping %g: %w", nf.lam, nf.trialErr)
 	case failMonotonicity:
 		return fmt.Errorf("natural monotonicity test failed down to damping %g (contraction %.3g)", nf.lam, nf.theta)
-	case failBound:
-		return fmt.Errorf("bounds allow only damping %.3g (point %d, component %d at its bound)", nf.lam, nf.at/s.b, nf.at%s.b)
 	case failIterations:
 		return fmt.Errorf("no convergence in %d Newton iterations (last step norm %.3g, contraction %.3g)", maxIter, nf.s0, nf.theta)
 	case failNone:
@@ -627,35 +690,50 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			continue
 		}
 		s.setWeights(u)
-		var s0 float64
+		var raw float64
 		if haveStep {
 			copy(s.du, s.dubar)
-			s0 = s.norm(s.du)
+			raw = s.norm(s.du)
 		} else {
-			s0 = s.step(s.f, s.du)
+			raw = s.step(s.f, s.du)
 		}
-		if math.IsNaN(s0) || math.IsInf(s0, 0) {
+		s0 := s.projectedNorm(u, s.du)
+		if s.opt.ProjectedConvergence && !math.IsNaN(raw) {
+			raw = s0
+		}
+		if s0 == 0 && raw > 0 && !math.IsNaN(raw) && !math.IsInf(raw, 0) {
+			// Every component left is pushed outward at its bound: the
+			// state is on the boundary of the box, not at a root.
 			if fresh {
-				return false, fmt.Errorf("Newton step is %g", s0)
+				i := s.largest(s.du)
+				return false, fmt.Errorf("the Newton step only pushes unknowns outside their bounds (largest: point %d, component %d at its bound, scaled step %.3g)", i/s.b, i%s.b, raw)
 			}
 			needFresh = true
 			continue
 		}
-		if s0 == 0 {
+		s.project(u, s.du)
+		if math.IsNaN(raw) || math.IsInf(raw, 0) {
+			if fresh {
+				return false, fmt.Errorf("Newton step is %g", raw)
+			}
+			needFresh = true
+			continue
+		}
+		if raw == 0 {
 			if !s.transient {
 				s.res.StepNorm = 0
 			}
 			return true, nil
 		}
-		lmax, at := s.boundLimit(u, s.du)
-		lam := min(1, lmax)
-		nf = newtonFailure{kind: failBound, lam: lam, at: at}
-		if s0 < 1 && lmax >= 1 {
+		lam := 1.0
+		// The convergence test is on the step before projection: a state held
+		// on a bound by the projection is not a root.
+		if raw < s.tolerance() {
 			s.trial(u, s.du, 1)
 			err := s.system(s.ut, s.ft)
 			if err == nil {
 				s.accept(u)
-				s.recordSteady(s0, 1)
+				s.recordSteady(raw, 1)
 				return true, nil
 			}
 			nf = newtonFailure{kind: failTrial, lam: 1, trialErr: err}
@@ -667,7 +745,8 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			if err := s.system(s.ut, s.ft); err != nil {
 				nf = newtonFailure{kind: failTrial, lam: lam, trialErr: err}
 			} else {
-				s1 := s.step(s.ft, s.dubar)
+				s.step(s.ft, s.dubar)
+				s1 := s.projectedNorm(s.ut, s.dubar)
 				nf.theta = s1 / s0
 				if nf.theta <= 1-lam/4 {
 					accepted = true
@@ -689,12 +768,21 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			return false, s.failure(&nf, maxIter)
 		}
 		s.accept(u)
-		s.recordSteady(s0, lam)
+		s.recordSteady(raw, lam)
 		haveStep = true
 		needFresh = lam < 1 || nf.theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
-		nf = newtonFailure{kind: failIterations, s0: s0, theta: nf.theta}
+		nf = newtonFailure{kind: failIterations, s0: raw, theta: nf.theta}
 	}
 	return false, s.failure(&nf, maxIter)
+}
+
+// tolerance is the scaled step norm below which the current system counts
+// as solved.
+func (s *solver) tolerance() float64 {
+	if s.transient && s.opt.TimeStepTolerance > 1 {
+		return s.opt.TimeStepTolerance
+	}
+	return 1
 }
 
 // timeSteps takes Options.StepsPerAttempt accepted backward-Euler steps of

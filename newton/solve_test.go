@@ -413,7 +413,9 @@ func TestSolveFailureReasons(t *testing.T) {
 	jacErr := errors.New("chemistry table missing")
 
 	// The unknown (point 1, component 1) sits on its lower bound 0 and the
-	// step points below it: no damping helps.
+	// step points below it: the projected step moves every other unknown to
+	// its target, and then only the blocked one is left, which no damping
+	// helps.
 	opt := DefaultOptions(2)
 	opt.Lower[1] = 0
 	opt.MaxTimeStepAttempts = 0
@@ -422,8 +424,8 @@ func TestSolveFailureReasons(t *testing.T) {
 	if !errors.Is(err, ErrNotConverged) || !strings.Contains(err.Error(), "point 1, component 1 at its bound") {
 		t.Errorf("blocked by bound: error %v, want ErrNotConverged naming point 1, component 1", err)
 	}
-	if maxAbsDiff(x, start()) != 0 {
-		t.Errorf("blocked by bound: u = %v, want the initial state", x)
+	if want := []float64{0.5, 0.5, 0.5, 0, 0.5, 0.5}; maxAbsDiff(x, want) > 1e-12 {
+		t.Errorf("blocked by bound: u = %v, want %v (all but the blocked unknown at their targets)", x, want)
 	}
 
 	opt = DefaultOptions(2)
@@ -482,4 +484,95 @@ func (p *linearProblem) Residual(u, f []float64) error {
 		f[i] = u[i] - p.target[i]
 	}
 	return nil
+}
+
+// A looser Newton test inside pseudo-time steps reaches the same root in
+// fewer Newton iterations (the time steps are a path, not the answer), and
+// Result.TimeStep hands on a step a later solve can start from.
+func TestTimeStepTolerance(t *testing.T) {
+	p := &cubicChain{n: 15, kappa: 0.05}
+	start := func() []float64 {
+		x := make([]float64, 30)
+		for j := range 15 {
+			x[j*2] = 1.5 + 0.1*math.Sin(float64(j))
+			x[j*2+1] = x[j*2] * x[j*2]
+		}
+		return x
+	}
+	var iters [2]int
+	r := cubicRoot()
+	for i, tol := range []float64{0, 100} {
+		opt := DefaultOptions(2)
+		opt.TimeStep, opt.MaxTimeStep = 0.05, 1
+		opt.TimeStepTolerance = tol
+		x := start()
+		res, err := Solve(p, x, opt)
+		if err != nil {
+			t.Fatalf("TimeStepTolerance %g: %v", tol, err)
+		}
+		iters[i] = res.NewtonIterations
+		for j := range 15 {
+			if math.Abs(x[j*2]-r) > 1e-4*math.Abs(r) {
+				t.Errorf("TimeStepTolerance %g: point %d u = %.8f, want %.8f", tol, j, x[j*2], r)
+			}
+		}
+		if res.TimeSteps == 0 || !(res.TimeStep > opt.TimeStep && res.TimeStep <= opt.MaxTimeStep) {
+			t.Errorf("TimeStepTolerance %g: %d time steps, next step %g; want steps and a grown step in (%g, %g]",
+				tol, res.TimeSteps, res.TimeStep, opt.TimeStep, opt.MaxTimeStep)
+		}
+	}
+	if iters[1] >= iters[0] {
+		t.Errorf("Newton iterations: %d with the loose time-step test, %d with the tight one; want fewer", iters[1], iters[0])
+	}
+	opt := DefaultOptions(2)
+	opt.TimeStepTolerance = 0.5
+	if _, err := Solve(p, start(), opt); err == nil || !strings.Contains(err.Error(), "TimeStepTolerance") {
+		t.Errorf("TimeStepTolerance 0.5: error %v, want one naming the option", err)
+	}
+}
+
+// With ProjectedConvergence a state whose only remaining correction pushes
+// an unknown on its bound outward is accepted: the root of the problem
+// restricted to the bounds. Without it the same state is a failure.
+func TestProjectedConvergence(t *testing.T) {
+	target := []float64{0.5, 0.5, 0.5, -1, 0.5, 0.5}
+	for _, projected := range []bool{false, true} {
+		opt := DefaultOptions(2)
+		opt.Lower[1] = 0
+		opt.MaxTimeStepAttempts = 0
+		opt.ProjectedConvergence = projected
+		x := []float64{0.2, 0.2, 0.2, 0, 0.2, 0.2}
+		_, err := Solve(&shifted{n: 3, b: 2, target: target}, x, opt)
+		if projected != (err == nil) {
+			t.Errorf("ProjectedConvergence %v: error %v", projected, err)
+		}
+		if want := []float64{0.5, 0.5, 0.5, 0, 0.5, 0.5}; maxAbsDiff(x, want) > 1e-12 {
+			t.Errorf("ProjectedConvergence %v: u = %v, want %v", projected, x, want)
+		}
+	}
+}
+
+// TimeStepsFirst takes pseudo-time steps before any steady Newton step:
+// the first event reported is a time step, and the root is still found.
+func TestTimeStepsFirst(t *testing.T) {
+	p := &linearProblem{target: []float64{1, 2}}
+	opt := DefaultOptions(2)
+	opt.TimeStepsFirst = true
+	var first string
+	opt.Progress = func(e Event) {
+		if first == "" {
+			first = e.Stage
+		}
+	}
+	u := []float64{0, 0}
+	res, err := Solve(p, u, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if first != "timestep" || res.TimeSteps != opt.StepsPerAttempt {
+		t.Errorf("first event %q, %d time steps; want a time step first and %d steps", first, res.TimeSteps, opt.StepsPerAttempt)
+	}
+	if maxAbsDiff(u, p.target) > 1e-9 {
+		t.Errorf("u = %v, want %v", u, p.target)
+	}
 }

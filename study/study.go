@@ -20,6 +20,7 @@ import (
 	"flame1d/chem"
 	"flame1d/flame"
 	"flame1d/fuel"
+	"flame1d/grid"
 	"flame1d/internal/infile"
 	"flame1d/output"
 	"flame1d/sensitivity"
@@ -156,36 +157,27 @@ func needTransport(c *casefile.Case, m *chem.Mechanism) error {
 }
 
 // Settings maps a case's [grid] and [solver] tables onto solver settings.
+// Keys left out are zero, which the flame solver reads as its defaults
+// (flame.DefaultSettings), so no default is repeated here.
 func Settings(c *casefile.Case, progress io.Writer) flame.Settings {
-	s := flame.DefaultSettings()
 	g := c.Grid
-	if g.InitialPoints > 0 {
-		s.InitialPoints = g.InitialPoints
+	s := flame.Settings{
+		Grid: grid.Criteria{
+			MaxChange:         g.MaxChange,
+			MaxGradientChange: g.MaxGradientChange,
+			MaxSpacingRatio:   g.MaxSpacingRatio,
+			RemovalMargin:     g.RemovalMargin,
+			MaxPoints:         g.MaxPoints,
+		},
+		InitialPoints:      g.InitialPoints,
+		DomainLength:       g.DomainLength,
+		NoThermalDiffusion: c.Solver.NoThermalDiffusion,
+		CentralConvection:  c.Solver.CentralConvection,
+		RelTol:             c.Solver.RelativeTol,
+		AnchorRise:         c.Solver.AnchorRise,
 	}
-	if g.MaxChange > 0 {
-		s.Grid.MaxChange = g.MaxChange
-	}
-	if g.MaxGradientChange > 0 {
-		s.Grid.MaxGradientChange = g.MaxGradientChange
-	}
-	if g.MaxSpacingRatio > 0 {
-		s.Grid.MaxSpacingRatio = g.MaxSpacingRatio
-	}
-	s.Grid.RemovalMargin = g.RemovalMargin
-	if g.MaxPoints > 0 {
-		s.Grid.MaxPoints = g.MaxPoints
-	}
-	s.DomainLength = g.DomainLength
-	s.ThermalDiffusion = c.Solver.ThermalDiffusion
-	s.CentralConvection = c.Solver.CentralConvection
 	if c.Solver.Multicomponent {
 		s.Diffusion = flame.Multicomponent
-	}
-	if c.Solver.RelativeTol > 0 {
-		s.RelTol = c.Solver.RelativeTol
-	}
-	if c.Solver.AnchorRise > 0 {
-		s.AnchorRise = c.Solver.AnchorRise
 	}
 	s.Workers = c.Solver.Workers
 	if progress != nil {

@@ -19,7 +19,9 @@ var inertElements = map[string]bool{"N": true, "AR": true, "HE": true, "NE": tru
 // product is not defined here.
 func (s *SpeciesSet) oxygenDemand(k int) (float64, error) {
 	d := 0.0
-	for e, n := range s.Species[k].Composition {
+	comp := s.Species[k].Composition
+	for _, e := range sortedKeys(comp) { // fixed order: reproducible sums
+		n := comp[e]
 		switch u := strings.ToUpper(e); {
 		case u == "C":
 			d += n

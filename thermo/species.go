@@ -22,8 +22,11 @@ func (s *Species) MolarMass() (float64, error) {
 	if len(s.Composition) == 0 {
 		return 0, fmt.Errorf("species %q: no elemental composition", s.Name)
 	}
+	// Summed in a fixed (sorted) element order: map order would change the
+	// last bits from run to run, and with them every result downstream.
 	w := 0.0
-	for e, n := range s.Composition {
+	for _, e := range sortedKeys(s.Composition) {
+		n := s.Composition[e]
 		aw, ok := AtomicWeight(e)
 		if !ok {
 			return 0, fmt.Errorf("species %q: element %q has no standard atomic weight", s.Name, e)

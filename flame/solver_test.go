@@ -1,0 +1,175 @@
+package flame_test
+
+import (
+	"math"
+	"slices"
+	"testing"
+
+	"flame1d/flame"
+	"flame1d/grid"
+	"flame1d/thermo"
+)
+
+// The same case gives the same bits: two CH4/air flames on GRI-Mech 3.0,
+// each from a freshly loaded mechanism and a new solver, one with one
+// residual worker and one with two, end on identical grids and identical
+// unknowns, to the last bit. (Molar masses once summed element counts in
+// map order, which differs from run to run.)
+func TestMethaneSolutionReproducible(t *testing.T) {
+	if testing.Short() {
+		t.Skip("two full flame solves")
+	}
+	var ref *flame.Solution
+	for run, workers := range []int{1, 2} {
+		m, s := solverFor(t, "smith1999-natgas")
+		in := inlet(t, m, map[string]float64{"CH4": 1}, 1.0, 298, thermo.OneAtmosphere)
+		set := flame.DefaultSettings()
+		set.Workers = workers
+		sol, err := s.Solve(in, set)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if run == 0 {
+			ref = sol
+			continue
+		}
+		if !sameBits(sol.X, ref.X) || !sameBits(sol.U, ref.U) {
+			t.Fatalf("run with %d workers differs from the first run: %d vs %d points, m = %.17g vs %.17g kg/(m^2 s)",
+				workers, sol.Points(), ref.Points(), sol.MassFlux(), ref.MassFlux())
+		}
+		if sol.Stats.NewtonIterations != ref.Stats.NewtonIterations || sol.Stats.JacobianEvaluations != ref.Stats.JacobianEvaluations {
+			t.Errorf("work differs: %d/%d Newton iterations, %d/%d Jacobians", sol.Stats.NewtonIterations, ref.Stats.NewtonIterations,
+				sol.Stats.JacobianEvaluations, ref.Stats.JacobianEvaluations)
+		}
+	}
+}
+
+// sameBits reports whether two slices hold the same floats, bit for bit.
+func sameBits(a, b []float64) bool {
+	return slices.EqualFunc(a, b, func(x, y float64) bool { return math.Float64bits(x) == math.Float64bits(y) })
+}
+
+// The zero Settings is the documented default: a flame solved with
+// flame.Settings{} is the one solved with DefaultSettings(), to the last
+// bit, thermal diffusion included (the zero value once left it out and
+// gave a different flame speed).
+func TestZeroSettingsAreTheDefaults(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m, s := solverFor(t, "burke2012-hydrogen")
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	zero, err := s.Solve(in, flame.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	def, err := s.Solve(in, flame.DefaultSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !sameBits(zero.U, def.U) || !sameBits(zero.X, def.X) {
+		t.Errorf("Settings{}: %d points, m = %.9g; DefaultSettings(): %d points, m = %.9g kg/(m^2 s)",
+			zero.Points(), zero.MassFlux(), def.Points(), def.MassFlux())
+	}
+	noSoret := flame.DefaultSettings()
+	noSoret.NoThermalDiffusion = true
+	other, err := s.Solve(in, noSoret)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if other.MassFlux() == def.MassFlux() {
+		t.Error("NoThermalDiffusion changed nothing: the switch does not reach the equations")
+	}
+}
+
+// Lean methane/air from a cold start, GRI-Mech 3.0, 298 K, 1 atm. Measured
+// flame speeds (Vagelopoulos & Egolfopoulos 1998, Proc. Combust. Inst. 27;
+// Varea et al. 2012, Proc. Combust. Inst. 34; from memory) are about
+// 0.19-0.21 m/s at phi = 0.7 and 0.11-0.14 m/s at phi = 0.6; the bands add
+// 0.03 m/s for the scatter and the model. The start-up guess follows the
+// adiabatic temperature, so these slow flames start near their answer. The
+// work is a regression guard, not a target met: the phi = 0.7 start took 986
+// Newton iterations from the fixed 0.4 m/s guess, 480 on this branch before
+// its rebase onto main and 2648 after it (last-digit changes of the
+// adiabatic temperature change which start-up attempt succeeds); the
+// ceiling is 3000 until the start-up is made robust.
+func TestLeanMethaneColdStarts(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m, s := solverFor(t, "smith1999-natgas")
+	for _, c := range []struct{ phi, lo, hi float64 }{{0.6, 0.08, 0.17}, {0.7, 0.16, 0.24}} {
+		in := inlet(t, m, map[string]float64{"CH4": 1}, c.phi, 298, thermo.OneAtmosphere)
+		sol, p := solve(t, s, in, flame.DefaultSettings())
+		st := sol.Stats
+		t.Logf("CH4/air phi=%.1f: S_L = %.4f m/s, %d points, %d Newton iterations, %d Jacobians, %d time steps",
+			c.phi, p.FlameSpeed, sol.Points(), st.NewtonIterations, st.JacobianEvaluations, st.TimeSteps)
+		if p.FlameSpeed < c.lo || p.FlameSpeed > c.hi {
+			t.Errorf("phi=%.1f: S_L = %.3f m/s, want %.2f-%.2f", c.phi, p.FlameSpeed, c.lo, c.hi)
+		}
+		if st.NewtonIterations > 3000 {
+			t.Errorf("phi=%.1f: %d Newton iterations (> 3000)", c.phi, st.NewtonIterations)
+		}
+	}
+}
+
+// The work of the demo flame (CH4/air, GRI-Mech 3.0, phi = 1, 298 K, 1 atm)
+// is deterministic; these ceilings catch a solver change that makes it
+// dearer. Measured at this commit: 105 Newton iterations, 36 Jacobians,
+// 47 factorisations, 10 pseudo-time steps (279, 54, 92 and 30 before the
+// start-up was loosened and the bounds projected).
+func TestMethaneDemoWorkCeiling(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solve")
+	}
+	m, s := solverFor(t, "smith1999-natgas")
+	sol, p := solve(t, s, inlet(t, m, map[string]float64{"CH4": 1}, 1, 298, thermo.OneAtmosphere), flame.DefaultSettings())
+	st := sol.Stats
+	t.Logf("S_L = %.9f m/s: %d Newton iterations, %d Jacobians, %d factorisations, %d time steps, %d residual evaluations",
+		p.FlameSpeed, st.NewtonIterations, st.JacobianEvaluations, st.Factorizations, st.TimeSteps, st.ResidualEvaluations)
+	if st.NewtonIterations > 110 || st.JacobianEvaluations > 40 || st.Factorizations > 50 {
+		t.Errorf("%d Newton iterations, %d Jacobians, %d factorisations; ceilings 110, 40, 50",
+			st.NewtonIterations, st.JacobianEvaluations, st.Factorizations)
+	}
+	// S_L of the demo before the solver changes: 0.359910458 m/s. The
+	// discrete equations are unchanged, so it may move only within the
+	// Newton tolerance.
+	if d := math.Abs(p.FlameSpeed-0.359910458) / 0.359910458; d > 1e-4 {
+		t.Errorf("S_L = %.9f m/s moved %.2g from 0.359910458 (> 1e-4)", p.FlameSpeed, d)
+	}
+}
+
+// countingRefiner refines by the default criteria and counts its calls.
+type countingRefiner struct {
+	grid  grid.Criteria
+	calls int
+}
+
+func (r *countingRefiner) Refine(x, u []float64, block int, components []int, keep []float64) ([]float64, []float64, bool, error) {
+	r.calls++
+	return r.grid.Refine(x, u, block, components, keep)
+}
+
+// A refiner given in the settings decides the grid: one that applies the
+// default criteria is called and gives the default flame, bit for bit.
+func TestRefinerFromSettings(t *testing.T) {
+	if testing.Short() {
+		t.Skip("full flame solves")
+	}
+	m, s := solverFor(t, "burke2012-hydrogen")
+	in := inlet(t, m, map[string]float64{"H2": 1}, 1.0, 298, thermo.OneAtmosphere)
+	def, err := s.Solve(in, flame.DefaultSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := &countingRefiner{grid: flame.DefaultSettings().Grid}
+	set := flame.DefaultSettings()
+	set.Refiner = r
+	sol, err := s.Solve(in, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.calls == 0 || !sameBits(sol.X, def.X) || !sameBits(sol.U, def.U) {
+		t.Errorf("refiner called %d times; grid %d vs %d points", r.calls, sol.Points(), def.Points())
+	}
+}
