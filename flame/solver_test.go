@@ -131,11 +131,15 @@ func TestMethaneDemoWorkCeiling(t *testing.T) {
 		t.Errorf("%d Newton iterations, %d Jacobians, %d factorisations; ceilings 110, 40, 50",
 			st.NewtonIterations, st.JacobianEvaluations, st.Factorizations)
 	}
-	// S_L of the demo before the solver changes: 0.359910458 m/s. The
-	// discrete equations are unchanged, so it may move only within the
-	// Newton tolerance.
-	if d := math.Abs(p.FlameSpeed-0.359910458) / 0.359910458; d > 1e-4 {
-		t.Errorf("S_L = %.9f m/s moved %.2g from 0.359910458 (> 1e-4)", p.FlameSpeed, d)
+	// S_L of the demo with the present discrete equations: 0.364007722 m/s
+	// (0.359910458 before the mixture-averaged thermal diffusion ratios
+	// were taken from the first Chapman-Enskog approximation instead of the
+	// isotopic formula; see docs/transport.md). Solver changes leave the
+	// discrete equations alone, so S_L may move only within the Newton
+	// tolerance.
+	const want = 0.364007722
+	if d := math.Abs(p.FlameSpeed-want) / want; d > 1e-4 {
+		t.Errorf("S_L = %.9f m/s moved %.2g from %.9f (> 1e-4)", p.FlameSpeed, d, want)
 	}
 }
 
