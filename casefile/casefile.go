@@ -26,9 +26,15 @@ import (
 // Case is a parsed, unit-converted case file. Compositions are still by
 // species name; they are resolved against the mechanism later.
 type Case struct {
-	File      string
-	Title     string
-	Mechanism string // built-in name or path (relative paths resolved against the case file's folder)
+	File  string
+	Title string
+	// Mechanism is what the case's own fuel burns on (run, sweep): a
+	// built-in name or path (relative paths resolved against the case
+	// file's folder); see MechanismOf.
+	Mechanism string
+	// TopLevelMechanism is the file's top-level mechanism key, "" when
+	// absent: every fuel that names no mechanism of its own burns on it.
+	TopLevelMechanism string
 
 	// Fuel is the fuel the case burns: [mixture] fuel as inline mole
 	// fractions (a neat fuel or surrogate named InlineFuelName), or the name of one
@@ -57,6 +63,31 @@ type CompareSettings struct {
 	Fuels             []string
 	EquivalenceRatios []float64
 	ProfilePhi        float64 // equivalence ratio of the profile overlay
+}
+
+// DefaultMechanism is the mechanism of a neat fuel or surrogate in a case
+// that names none; FoundationalMechanism that of a cracked-pool fuel: the
+// C0-C4 set validated for the pool species (Ranzi et al. 2012).
+const (
+	DefaultMechanism      = "smith1999-natgas"
+	FoundationalMechanism = "ranzi2012-c1c3"
+)
+
+// MechanismOf names the mechanism a fuel burns on: its table's own
+// mechanism key; else the case's top-level mechanism when the file gives
+// one; else FoundationalMechanism for a cracked pool and DefaultMechanism
+// for a neat fuel.
+func (c *Case) MechanismOf(f fuel.Spec) string {
+	if f.Mechanism != "" {
+		return f.Mechanism
+	}
+	if c.TopLevelMechanism != "" {
+		return c.TopLevelMechanism
+	}
+	if f.IsPool() {
+		return FoundationalMechanism
+	}
+	return DefaultMechanism
 }
 
 // FuelByName returns the named [fuels.NAME] entry.
@@ -103,9 +134,6 @@ type OutputSettings struct {
 // InlineFuelName names a fuel given as inline mole fractions in [mixture]
 // (it has no table name of its own); messages then point at the key.
 const InlineFuelName = "mixture.fuel"
-
-// DefaultMechanism is the built-in mechanism of a file that names none.
-const DefaultMechanism = "smith1999-natgas"
 
 // DefaultOxidizer is dry air as 21% O2 / 79% N2 by volume.
 func DefaultOxidizer() map[string]float64 { return map[string]float64{"O2": 0.21, "N2": 0.79} }
@@ -185,12 +213,9 @@ func Parse(src []byte, file string) (*Case, error) {
 		return nil, err
 	}
 	fe := keyErrors(src, file)
-	c := &Case{File: file, Title: r.Title, Mechanism: r.Mechanism}
+	c := &Case{File: file, Title: r.Title, TopLevelMechanism: r.Mechanism}
 	if err := checkText(r.Title, maxTitleBytes); err != nil {
 		return nil, fe("title", "%v", err)
-	}
-	if c.Mechanism == "" {
-		c.Mechanism = DefaultMechanism
 	}
 	for _, k := range md.Keys() {
 		if len(k) == 2 && k[0] == "fuels" {
@@ -220,6 +245,7 @@ func Parse(src []byte, file string) (*Case, error) {
 	default:
 		return nil, fe("mixture.fuel", "missing: give the fuel as mole fractions, e.g. fuel = { CH4 = 1.0 }, or the name of a [fuels.NAME] table")
 	}
+	c.Mechanism = c.MechanismOf(c.Fuel)
 	if r.Compare != nil {
 		cmp := &CompareSettings{Fuels: r.Compare.Fuels, EquivalenceRatios: r.Compare.EquivalenceRatios, ProfilePhi: valueOr(r.Mixture.EquivalenceRatio, 1)}
 		if r.Compare.ProfilePhi != nil {

@@ -19,6 +19,7 @@ import (
 // 4.32e7 are accepted; spec converts them to SI.
 type fuelTable struct {
 	Description string             `toml:"description"`
+	Mechanism   string             `toml:"mechanism"`
 	Composition map[string]float64 `toml:"composition"`
 
 	Formula   string  `toml:"formula"`
@@ -98,7 +99,7 @@ func (t *fuelTable) spec(name string, fe keyError) (fuel.Spec, error) {
 	if err := checkText(t.Description, maxTitleBytes); err != nil {
 		return fuel.Spec{}, fe(table+".description", "%v", err)
 	}
-	s := fuel.Spec{Name: name, Description: t.Description, Composition: t.Composition,
+	s := fuel.Spec{Name: name, Description: t.Description, Mechanism: t.Mechanism, Composition: t.Composition,
 		Formula: t.Formula, HToC: t.HToC, OToC: t.OToC, Mode: t.Mode, SpeciesName: t.SpeciesName}
 	key := "fuels." + name + "."
 	for _, q := range []struct {

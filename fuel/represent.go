@@ -11,6 +11,7 @@ import (
 // its premixed inlet is at given conditions. JSON names carry units.
 type Representation struct {
 	Fuel        string             `json:"fuel"`
+	Mechanism   string             `json:"mechanism,omitempty"` // as the file or flag names it
 	Kind        string             `json:"kind"`
 	Composition map[string]float64 `json:"composition,omitempty"` // a neat fuel's mole fractions
 	Report      *PoolReport        `json:"report,omitempty"`      // a cracked pool's

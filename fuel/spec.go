@@ -15,6 +15,10 @@ type Spec struct {
 	// Name identifies the fuel in reports (the file's [fuels.NAME]).
 	Name        string
 	Description string
+	// Mechanism names the mechanism this fuel burns on (built-in name or
+	// path relative to the file that gives it); empty means the file's
+	// (casefile.Case.MechanismOf).
+	Mechanism string
 
 	// Composition: mole fractions of mechanism species (neat or surrogate).
 	Composition map[string]float64

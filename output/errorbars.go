@@ -44,8 +44,44 @@ func errorBars(xy plotter.XYs, yerr []float64, col color.Color) (*plotter.YError
 	return eb, nil
 }
 
-// addErrorBars draws s.YErr, when given, at the points xy of a line series.
+// bandBars returns vertical bars from low[j] to high[j] at the points xy
+// (measured scatter bands). It refuses lengths that differ and bands that
+// are not finite or do not hold their point.
+func bandBars(xy plotter.XYs, low, high []float64, col color.Color) (*plotter.YErrorBars, error) {
+	if len(low) != len(xy) || len(high) != len(xy) {
+		return nil, fmt.Errorf("%d low and %d high band ends for %d points", len(low), len(high), len(xy))
+	}
+	errs := make(plotter.YErrors, len(xy))
+	for j := range xy {
+		if !finite(low[j]) || !finite(high[j]) || low[j] > xy[j].Y || xy[j].Y > high[j] {
+			return nil, fmt.Errorf("point %d: band %g-%g does not hold %g", j+1, low[j], high[j], xy[j].Y)
+		}
+		errs[j].Low, errs[j].High = xy[j].Y-low[j], high[j]-xy[j].Y
+	}
+	eb, err := plotter.NewYErrorBars(struct {
+		plotter.XYs
+		plotter.YErrors
+	}{xy, errs})
+	if err != nil {
+		return nil, err
+	}
+	eb.Color = col
+	eb.Width = vg.Points(1)
+	eb.CapWidth = vg.Points(5)
+	return eb, nil
+}
+
+// addErrorBars draws s.YErr, or the band s.YLow-s.YHigh, when given, at
+// the points xy of a line series.
 func addErrorBars(p *plot.Plot, xy plotter.XYs, s Series, col color.Color) error {
+	if s.YLow != nil || s.YHigh != nil {
+		eb, err := bandBars(xy, s.YLow, s.YHigh, col)
+		if err != nil {
+			return fmt.Errorf("series %q: %w", s.Name, err)
+		}
+		p.Add(eb)
+		return nil
+	}
 	if s.YErr == nil {
 		return nil
 	}

@@ -57,6 +57,11 @@ type Series struct {
 	// YErr, when non-nil (line charts, one per point), draws a symmetric
 	// error bar of ±YErr at each point; zeros draw none.
 	YErr []float64
+	// YLow and YHigh, when non-nil (one per point, instead of YErr), draw
+	// a bar from YLow to YHigh at each point: a measured scatter band.
+	YLow, YHigh []float64
+	// NoLine draws the markers only (measurements).
+	NoLine bool
 }
 
 // Break marks a gap after the series' last point (a failed point lies
@@ -364,7 +369,7 @@ func addSeries(fp *figurePanel, i int, s Series) error {
 	var first *plotter.Line
 	start := 0
 	for _, end := range append(append([]int(nil), s.Breaks...), len(xy)) {
-		if end-start > 1 {
+		if end-start > 1 && !s.NoLine {
 			l, err := plotter.NewLine(xy[start:end])
 			if err != nil {
 				return err

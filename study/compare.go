@@ -7,8 +7,10 @@ import (
 	"math"
 	"path/filepath"
 	"sort"
+	"strings"
 
 	"flame1d/casefile"
+	"flame1d/chem"
 	"flame1d/flame"
 	"flame1d/output"
 )
@@ -41,70 +43,63 @@ func Compare(c *casefile.Case, fuels []string, phis []float64, progress io.Write
 	if len(phis) == 0 {
 		return nil, fmt.Errorf("compare needs at least one equivalence ratio")
 	}
-	mech, err := LoadMechanism(c)
-	if err != nil {
-		return nil, err
-	}
+	mechs := map[string]*chem.Mechanism{}
 	cmp := &Comparison{Fuels: fuels, Phis: phis, Results: map[string][]*Result{}, Errors: map[string][]error{}, Studies: map[string]*Study{}}
 	for _, name := range fuels {
 		spec, ok := c.FuelByName(name)
 		if !ok {
 			return nil, fmt.Errorf("%s: no [fuels.%s] table", c.File, name)
 		}
+		mechName := c.MechanismOf(spec)
+		mech, ok := mechs[mechName]
+		if !ok {
+			m, err := LoadMechanismFor(mechName, c.File)
+			if err != nil {
+				return nil, fmt.Errorf("fuel %s: %w", name, err)
+			}
+			mech, mechs[mechName] = m, m
+		}
 		st, err := NewForFuel(c, mech, spec, progress)
 		if err != nil {
 			return nil, err
 		}
 		cmp.Studies[name] = st
-		res := make([]*Result, len(phis))
-		errs := make([]error, len(phis))
-		for _, i := range continuationOrder(phis) {
-			var start *flame.Solution
-			if j := nearestSolved(phis, res, i); j >= 0 {
-				start = res[j].Solution
-			}
-			cond := Condition{Phi: phis[i], T: c.Temperature, P: c.Pressure}
+		res, errs := st.SolveAlongPhi(phis, c.Temperature, c.Pressure, func(i int, r *Result, err error) {
 			if progress != nil {
-				fmt.Fprintf(progress, "compare: %s at %v\n", name, cond)
+				fmt.Fprintf(progress, "compare: %s at %v: %s\n", name, Condition{Phi: phis[i], T: c.Temperature, P: c.Pressure}, outcome(r, err))
 			}
-			r, err := st.Solve(cond, start)
-			res[i], errs[i] = r, err
-		}
+		})
 		cmp.Results[name], cmp.Errors[name] = res, errs
 	}
 	return cmp, nil
 }
 
-// continuationOrder visits indices starting at the equivalence ratio
-// nearest 1.05 (near the fastest flame, where a cold start is easiest) and
-// walking outwards.
-func continuationOrder(phis []float64) []int {
-	idx := make([]int, len(phis))
-	for i := range idx {
-		idx[i] = i
+// MechanismOf names the mechanism a fuel of the comparison burns on.
+func (c *Comparison) MechanismOf(fuel string) string {
+	if st := c.Studies[fuel]; st != nil {
+		return st.MechanismName
 	}
-	sort.SliceStable(idx, func(a, b int) bool {
-		return math.Abs(phis[idx[a]]-1.05) < math.Abs(phis[idx[b]]-1.05)
-	})
-	return idx
+	return ""
 }
 
-func nearestSolved(phis []float64, res []*Result, i int) int {
-	best, bj := math.Inf(1), -1
-	for j, r := range res {
-		if r != nil && j != i {
-			if d := math.Abs(phis[j] - phis[i]); d < best {
-				best, bj = d, j
-			}
-		}
+// Label is a fuel's name with its mechanism, as charts show it.
+func (c *Comparison) Label(fuel string) string {
+	return fuel + " (" + c.MechanismOf(fuel) + ")"
+}
+
+// MechanismNote says which mechanism each fuel burns on, in one line.
+func (c *Comparison) MechanismNote() string {
+	parts := make([]string, len(c.Fuels))
+	for i, f := range c.Fuels {
+		parts[i] = f + " on " + c.MechanismOf(f)
 	}
-	return bj
+	return "mechanisms: " + strings.Join(parts, "; ")
 }
 
 // Table lays the comparison out as CSV rows: one row per fuel and
 // equivalence ratio. Failed points have empty numeric fields and the reason.
 func (c *Comparison) Table() [][]string {
-	rows := [][]string{{"fuel", "equivalence_ratio [-]", "S_L [m/s]", "S_L/S_L(" + c.Fuels[0] + ") [-]",
+	rows := [][]string{{"fuel", "mechanism", "equivalence_ratio [-]", "S_L [m/s]", "S_L/S_L(" + c.Fuels[0] + ") [-]",
 		"T_adiabatic [K]", "T_burned [K]", "thermal_thickness [m]", "pyrolysis_end [m]", "heat_release_peak [m]",
 		"pyrolysis_to_peak [m]", "status"}}
 	withBand := c.hasBand()
@@ -116,7 +111,7 @@ func (c *Comparison) Table() [][]string {
 		for i, phi := range c.Phis {
 			r := c.Results[name][i]
 			if r == nil {
-				row := []string{name, f(phi), "", "", "", "", "", "", "", "", "failed: " + oneLine(c.Errors[name][i])}
+				row := []string{name, c.MechanismOf(name), f(phi), "", "", "", "", "", "", "", "", "failed: " + oneLine(c.Errors[name][i])}
 				if withBand {
 					row = append(row, "")
 				}
@@ -140,7 +135,7 @@ func (c *Comparison) Table() [][]string {
 			if s.Zones != nil && len(s.Zones.Pyrolysis) > 0 {
 				sep = f(s.Zones.SeparationM)
 			}
-			row := []string{name, f(phi), f(s.FlameSpeed), ratio, f(s.AdiabaticTemperature), f(s.BurnedTemperature),
+			row := []string{name, c.MechanismOf(name), f(phi), f(s.FlameSpeed), ratio, f(s.AdiabaticTemperature), f(s.BurnedTemperature),
 				f(s.ThermalThickness), pyEnd, f(s.Zones.Oxidation.PeakX), sep, "converged"}
 			if withBand {
 				row = append(row, bandCell(r))
@@ -176,7 +171,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 	condition := fmt.Sprintf("%.0f K, %.4g atm", cs.Temperature, cs.Pressure/101325)
 	var speed []output.Series
 	for _, name := range c.Fuels {
-		s := output.Series{Name: name}
+		s := output.Series{Name: c.Label(name)}
 		for _, i := range c.byPhi() {
 			if r := c.Results[name][i]; r != nil {
 				s.X = append(s.X, c.Phis[i])
@@ -238,8 +233,8 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 			}
 		}
 		clr := output.SeriesColor(f)
-		T := output.Series{Name: name, X: xs, Color: clr}
-		Q := output.Series{Name: name, X: xs, Color: clr}
+		T := output.Series{Name: c.Label(name), X: xs, Color: clr}
+		Q := output.Series{Name: c.Label(name), X: xs, Color: clr}
 		for _, j := range win {
 			T.Y = append(T.Y, p.T[j])
 			Q.Y = append(Q.Y, scale*p.HeatRelease[j])
@@ -257,7 +252,7 @@ func (c *Comparison) WritePlots(dir string, profilePhi float64) error {
 				continue
 			}
 			// Colour marks the species, the line pattern the fuel.
-			s := output.Series{Name: name + " " + sp, X: xs, Color: speciesColor(sp), Dash: f}
+			s := output.Series{Name: c.Label(name) + " " + sp, X: xs, Color: speciesColor(sp), Dash: f}
 			for _, j := range win {
 				s.Y = append(s.Y, p.MoleFractions[j][k])
 			}

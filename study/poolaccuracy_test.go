@@ -10,7 +10,6 @@ import (
 
 	"flame1d/builtin"
 	"flame1d/casefile"
-	"flame1d/flame"
 	"flame1d/fuel"
 )
 
@@ -106,23 +105,15 @@ func runPoolAccuracy(t *testing.T, phis []float64) *accuracyRun {
 	return run
 }
 
-// solveChain solves the equivalence ratios outwards from the one nearest
-// 1.05, each from its nearest solved neighbour (as compare and sweep do).
+// solveChain solves the equivalence ratios by continuation (as compare
+// does) and fails on the first failed point.
 func solveChain(st *Study, c *casefile.Case, phis []float64) ([]float64, error) {
-	res := make([]*Result, len(phis))
-	for _, i := range continuationOrder(phis) {
-		var start *flame.Solution
-		if j := nearestSolved(phis, res, i); j >= 0 {
-			start = res[j].Solution
-		}
-		r, err := st.Solve(Condition{Phi: phis[i], T: c.Temperature, P: c.Pressure}, start)
-		if err != nil {
-			return nil, err
-		}
-		res[i] = r
-	}
+	res, errs := st.SolveAlongPhi(phis, c.Temperature, c.Pressure, nil)
 	out := make([]float64, len(phis))
 	for i, r := range res {
+		if errs[i] != nil {
+			return nil, errs[i]
+		}
 		out[i] = r.Summary.FlameSpeed
 	}
 	return out, nil

@@ -36,9 +36,12 @@ type Study struct {
 	Case      *casefile.Case
 	Fuel      *fuel.Resolved
 	Mechanism *chem.Mechanism // what the flame burns (Fuel.Mechanism)
-	Set       *thermo.SpeciesSet
-	Solver    *flame.Solver
-	Settings  flame.Settings
+	// MechanismName is the mechanism as the case names it for this fuel
+	// (Case.MechanismOf): a built-in name or a path.
+	MechanismName string
+	Set           *thermo.SpeciesSet
+	Solver        *flame.Solver
+	Settings      flame.Settings
 	// factors caches the rate-constant uncertainty factors (Sensitivity).
 	factors []float64
 	// spec, base and baseSet are the fuel as written and the mechanism it
@@ -126,7 +129,7 @@ func NewForFuel(c *casefile.Case, mech *chem.Mechanism, spec fuel.Spec, progress
 	if err != nil {
 		return nil, err
 	}
-	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, Set: res.Set, Solver: solver, Settings: Settings(c, progress),
+	return &Study{Case: c, Fuel: res, Mechanism: res.Mechanism, MechanismName: c.MechanismOf(spec), Set: res.Set, Solver: solver, Settings: Settings(c, progress),
 		spec: &spec, base: mech, baseSet: base}, nil
 }
 
@@ -293,7 +296,7 @@ func (s *Study) Solve(c Condition, start *flame.Solution) (*Result, error) {
 	}
 	cs := s.Case
 	sum := &output.FlameSummary{
-		Title: cs.Title, Mechanism: cs.Mechanism, Fuel: s.FuelDescription(), FuelComposition: inletFuel(s, fin), Oxidizer: cs.Oxidizer,
+		Title: cs.Title, Mechanism: s.MechanismName, Fuel: s.FuelDescription(), FuelComposition: inletFuel(s, fin), Oxidizer: cs.Oxidizer,
 		EquivalenceRatio: c.Phi, UnburnedTemperatureK: c.T, InletTemperatureK: in.T, PressurePa: c.P,
 		Converged: true, FlameSpeed: prof.FlameSpeed, MassFlux: prof.MassFlux, BurnedTemperature: prof.BurnedT,
 		AdiabaticTemperature: sol.AdiabaticT, ThermalThickness: prof.ThermalThick, PeakHeatReleaseX: prof.PeakHeatReleaseX,

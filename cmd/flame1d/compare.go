@@ -29,7 +29,8 @@ func newCompareCmd() *cobra.Command {
 		Short: "Compare the flames of two or more fuels at the same conditions",
 		Long: `Solve every fuel of a case file's [compare] table (or --fuels; with neither,
 every [fuels.NAME] table) over a list of equivalence ratios, at the case's unburned temperature and pressure, and write:
-  compare.csv                  S_L of each fuel, its ratio to the first fuel,
+  compare.csv                  S_L of each fuel (and the mechanism it burns
+                               on), its ratio to the first fuel,
                                adiabatic and burned T, thickness, zone positions
   flame-speed.svg/.png         S_L against equivalence ratio for all fuels
   profiles-thermal.svg/.png    T and heat release at the profile condition,
@@ -51,6 +52,9 @@ every [fuels.NAME] table) over a list of equivalence ratios, at the case's unbur
 The folder is written as one set and replaced as a whole when complete; an
 interrupted run leaves the previous results as they were.
 
+Each fuel burns on the mechanism its [fuels.NAME] table names, else on the
+case's top-level mechanism, else a cracked pool on ranzi2012-c1c3 and a neat
+fuel on smith1999-natgas; every table, summary and chart names it.
 The first fuel is the reference (typically the surrogate used in CFD).
 Failed points are reported in the table with their reason, never as numbers.
 
@@ -105,8 +109,9 @@ Failed points are reported in the table with their reason, never as numbers.
 			if err != nil {
 				return err
 			}
+			printWarnings(cmd.ErrOrStderr(), cmp.ValidityWarnings())
 			rows := cmp.Table()
-			comments := []string{"flame1d fuel comparison: " + c.Title, output.SafetyNote}
+			comments := []string{"flame1d fuel comparison: " + c.Title, cmp.MechanismNote(), output.SafetyNote}
 			err = set.WriteFile("compare.csv", func(w io.Writer) error {
 				if err := output.WriteComments(w, comments); err != nil {
 					return err
@@ -164,12 +169,12 @@ func abs(x float64) float64 {
 
 func printCompare(w io.Writer, cmp *study.Comparison) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintf(tw, "fuel\tphi\tS_L [m/s]\tratio\tT_ad [K]\tpyrolysis end [mm]\tHRR peak [mm]\tstatus\n")
+	fmt.Fprintf(tw, "fuel\tmechanism\tphi\tS_L [m/s]\tratio\tT_ad [K]\tpyrolysis end [mm]\tHRR peak [mm]\tstatus\n")
 	for _, name := range cmp.Fuels {
 		for i, phi := range cmp.Phis {
 			r := cmp.Results[name][i]
 			if r == nil {
-				fmt.Fprintf(tw, "%s\t%g\t-\t-\t-\t-\t-\tfailed\n", name, phi)
+				fmt.Fprintf(tw, "%s\t%s\t%g\t-\t-\t-\t-\t-\tfailed\n", name, cmp.MechanismOf(name), phi)
 				continue
 			}
 			s := r.Summary
@@ -185,7 +190,7 @@ func printCompare(w io.Writer, cmp *study.Comparison) {
 				}
 				py = fmt.Sprintf("%.3f", 1e3*end)
 			}
-			fmt.Fprintf(tw, "%s\t%g\t%s\t%s\t%.0f\t%s\t%.3f\tconverged\n", name, phi, speedWithBand(s), ratio,
+			fmt.Fprintf(tw, "%s\t%s\t%g\t%s\t%s\t%.0f\t%s\t%.3f\tconverged\n", name, cmp.MechanismOf(name), phi, speedWithBand(s), ratio,
 				s.AdiabaticTemperature, py, 1e3*s.Zones.Oxidation.PeakX)
 		}
 	}

@@ -29,6 +29,6 @@ flashback margins) confirm them against local codes and licensed practice.`,
 		SilenceErrors: true,
 	}
 	// Each subcommand lives in its own file as newXxxCmd().
-	root.AddCommand(newMechCmd(), newRunCmd(), newCompareCmd(), newEquilibriumCmd(), newPoolCmd(), newCrackCmd(), newTransportCmd(), newSweepCmd(), newMergeCmd(), newFitCmd())
+	root.AddCommand(newMechCmd(), newRunCmd(), newCompareCmd(), newEquilibriumCmd(), newPoolCmd(), newCrackCmd(), newTransportCmd(), newSweepCmd(), newMergeCmd(), newFitCmd(), newValidateCmd())
 	return root
 }

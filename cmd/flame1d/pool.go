@@ -48,8 +48,10 @@ pseudo-species (thermo, transport, global cracking step) and the premixed
 inlet at --phi and --temperature (in pre-cracked mode with the lowered inlet
 temperature). No flame is solved. Every key is described in docs/fuels.md.
 
-The mechanism is --mechanism, else the file's top-level mechanism key
-(relative to the file), else smith1999-natgas. The inlet's oxidizer,
+Every fuel is resolved on --mechanism when given; otherwise on its own
+mechanism key, else the file's top-level mechanism key (relative to the
+file), else ranzi2012-c1c3 for a cracked pool and smith1999-natgas for a
+neat fuel. The inlet's oxidizer,
 equivalence ratio and unburned temperature are the flags', else those of the
 file's [mixture] table (a case file), else air, 1 and 298.15 K.
 
@@ -121,27 +123,49 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 			return err
 		}
 	}
-	mech := o.Mechanism
-	if mech == "" {
-		mech = ff.Mechanism
+	// Each fuel on --mechanism, else on its own mechanism by the rule of
+	// compare (casefile.Case.MechanismOf).
+	rule := &casefile.Case{TopLevelMechanism: ff.Mechanism}
+	var names []string
+	bySpec := map[string][]fuel.Spec{}
+	for _, s := range specs {
+		name := o.Mechanism
+		if name == "" {
+			name = rule.MechanismOf(s)
+		}
+		if bySpec[name] == nil {
+			names = append(names, name)
+		}
+		bySpec[name] = append(bySpec[name], s)
 	}
-	m, err := study.LoadMechanismFor(mech, path)
-	if err != nil {
-		return err
-	}
-	results, err := fuel.Represent(m, specs, ox, phi, Tu)
-	if err != nil {
-		return fmt.Errorf("%s: %w", path, err)
+	var results []fuel.Representation
+	for _, name := range names {
+		m, err := study.LoadMechanismFor(name, path)
+		if err != nil {
+			return err
+		}
+		reps, err := fuel.Represent(m, bySpec[name], ox, phi, Tu)
+		if err != nil {
+			return fmt.Errorf("%s: %w", path, err)
+		}
+		for i := range reps {
+			reps[i].Mechanism = name
+		}
+		results = append(results, reps...)
 	}
 	if o.JSON {
 		return writeJSON(w, struct {
 			Mechanism string                `json:"mechanism"`
 			Fuels     []fuel.Representation `json:"fuels"`
 			Note      string                `json:"note"`
-		}{m.Name, results, output.SafetyNote})
+		}{strings.Join(names, ", "), results, output.SafetyNote})
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "Fuels of %s on mechanism %s\n  note  %s\n", path, m.Name, output.SafetyNote)
+	word := "mechanism"
+	if len(names) > 1 {
+		word = "mechanisms"
+	}
+	fmt.Fprintf(&b, "Fuels of %s on %s %s\n  note  %s\n", path, word, strings.Join(names, ", "), output.SafetyNote)
 	for _, r := range results {
 		writePoolText(&b, r)
 	}
@@ -150,7 +174,7 @@ func runPool(w io.Writer, path string, o poolOptions) error {
 }
 
 func writePoolText(b *strings.Builder, r fuel.Representation) {
-	fmt.Fprintf(b, "\nfuel %s (%s)\n", r.Fuel, r.Kind)
+	fmt.Fprintf(b, "\nfuel %s (%s) on %s\n", r.Fuel, r.Kind, r.Mechanism)
 	in := r.Inlet
 	if r.Report == nil {
 		fmt.Fprintf(b, "  composition             %s\n", compositionText(r.Composition))

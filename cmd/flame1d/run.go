@@ -104,6 +104,7 @@ and writes nothing.
 			if err != nil {
 				return err
 			}
+			printWarnings(cmd.ErrOrStderr(), st.ValidityWarnings(st.BaseCondition()))
 			var start *flame.Solution
 			if restart != "" {
 				if start, err = st.ReadRestart(restart); err != nil {

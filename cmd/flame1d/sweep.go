@@ -81,6 +81,11 @@ A progress bar goes to stderr when it is a terminal (silence it with -q).
 			if jobs < 0 {
 				return fmt.Errorf("-j %d: give a positive number of parallel solves (0 = all cores)", jobs)
 			}
+			warnings, err := sweep.ValidityWarnings(c)
+			if err != nil {
+				return err
+			}
+			printWarnings(cmd.ErrOrStderr(), warnings)
 			ctx, cancel := context.WithCancel(cmd.Context())
 			defer cancel()
 			stopOnSignal(ctx, cancel, cmd.ErrOrStderr())

@@ -11,9 +11,16 @@ import (
 )
 
 // MechanismsDir returns the folder of published mechanism sets, or skips the
-// test when it is not there.
+// test when it is not there. FLAME1D_SHARED_MECHANISMS, when set, names the
+// folder (for a working copy that does not sit beside shared/).
 func MechanismsDir(t testing.TB) string {
 	t.Helper()
+	if d := os.Getenv("FLAME1D_SHARED_MECHANISMS"); d != "" {
+		if _, err := os.Stat(d); err != nil {
+			t.Skipf("FLAME1D_SHARED_MECHANISMS=%s: %v", d, err)
+		}
+		return d
+	}
 	dir, err := os.Getwd()
 	if err != nil {
 		t.Fatal(err)
