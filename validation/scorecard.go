@@ -137,7 +137,7 @@ func Run(name string, mech *chem.Mechanism, sets []*Dataset, opt Options) (*Scor
 	for _, ch := range chains {
 		total += len(ch.indices)
 	}
-	solver := casefile.SolverSettings{ThermalDiffusion: true}
+	var solver casefile.SolverSettings
 	if opt.Solver != nil {
 		solver = *opt.Solver
 	}
