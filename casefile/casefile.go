@@ -405,7 +405,7 @@ func checkText(s string, max int) error {
 var quantityNames = map[string]bool{
 	"temperature": true, "pressure": true, "domain_length": true, "molar_mass": true,
 	"lower_heating_value": true, "higher_heating_value": true, "vaporization_enthalpy": true,
-	"standard_entropy": true, "cracking_time": true, "at_temperature": true, "activation_energy": true, "diameter": true,
+	"standard_entropy": true, "cracking_time": true, "at_temperature": true, "activation_energy": true, "lj_diameter": true,
 }
 
 // quantity converts a TOML value (number in SI, or a string with units) to

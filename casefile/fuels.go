@@ -52,9 +52,9 @@ type fuelTable struct {
 		AtTemperature       any     `toml:"at_temperature"`
 	} `toml:"global_step"`
 	Transport *struct {
-		WellDepth float64 `toml:"well_depth"`
-		Diameter  any     `toml:"diameter"`
-	} `toml:"transport"`
+		WellDepth float64 `toml:"lj_well_depth_K"`
+		Diameter  any     `toml:"lj_diameter"`
+	} `toml:"kinetic_theory"`
 }
 
 // keyError builds the error of one key (a dotted path) of file src.
@@ -139,12 +139,12 @@ func (t *fuelTable) spec(name string, fe keyError) (fuel.Spec, error) {
 	if tr := t.Transport; tr != nil {
 		d, err := quantity(tr.Diameter, units.Length, 0)
 		if err != nil {
-			return fuel.Spec{}, fe(key+"transport.diameter", "%v", err)
+			return fuel.Spec{}, fe(key+"kinetic_theory.lj_diameter", "%v", err)
 		}
 		// Lennard-Jones diameters are a few Å: a bare number above 1e-8 is
 		// a diameter in Å written without its unit, not metres.
 		if str, isString := tr.Diameter.(string); (!isString || isBareNumber(str)) && d > 1e-8 {
-			return fuel.Spec{}, fe(key+"transport.diameter", "a bare number is metres; write the unit, e.g. \"%g Å\"", d)
+			return fuel.Spec{}, fe(key+"kinetic_theory.lj_diameter", "a bare number is metres; write the unit, e.g. \"%g Å\"", d)
 		}
 		s.Transport = &fuel.TransportSpec{WellDepth: tr.WellDepth, Diameter: d}
 	}

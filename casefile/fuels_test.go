@@ -36,9 +36,9 @@ pressure = "10 bar"
 activation_energy = "60 kcal/mol"
 cracking_time = "50 us"
 at_temperature = "1027 C"
-[fuels.syn.transport]
-well_depth = 560
-diameter = "7.1 Å"
+[fuels.syn.kinetic_theory]
+lj_well_depth_K = 560
+lj_diameter = "7.1 Å"
 `
 
 func TestParseFuels(t *testing.T) {
@@ -70,8 +70,8 @@ func TestParseFuels(t *testing.T) {
 		{"global_step.activation_energy", *s.GlobalStep.ActivationEnergy, 60 * 4184},
 		{"global_step.cracking_time", s.GlobalStep.CrackingTime, 50e-6},
 		{"global_step.at_temperature", s.GlobalStep.AtTemperature, 1300.15},
-		{"transport.diameter", s.Transport.Diameter, 7.1e-10},
-		{"transport.well_depth", s.Transport.WellDepth, 560},
+		{"kinetic_theory.lj_diameter", s.Transport.Diameter, 7.1e-10},
+		{"kinetic_theory.lj_well_depth_K", s.Transport.WellDepth, 560},
 	} {
 		if relErr(c.got, c.want) > 1e-14 {
 			t.Errorf("%s = %.17g, want %.17g", c.name, c.got, c.want)
@@ -93,8 +93,8 @@ func TestParseFuelsErrors(t *testing.T) {
 		{"misspelt key", "balance =", "balanse =", "test.toml:8: fuels.kero.cracking.balanse: unknown key"},
 		{"unknown unit", `"165 g/mol"`, `"165 g"`, "test.toml:14: fuels.syn.molar_mass: \"165 g\": unknown molar mass unit"},
 		{"energy per mass as per mole", `"60 kcal/mol"`, `"60 MJ/kg"`, "test.toml:21: fuels.syn.global_step.activation_energy"},
-		{"bare diameter", `"7.1 Å"`, `7.1`, "test.toml:26: fuels.syn.transport.diameter: a bare number is metres"},
-		{"bare diameter string", `"7.1 Å"`, `"7.1"`, "fuels.syn.transport.diameter: a bare number is metres"},
+		{"bare diameter", `"7.1 Å"`, `7.1`, "test.toml:26: fuels.syn.kinetic_theory.lj_diameter: a bare number is metres"},
+		{"bare diameter string", `"7.1 Å"`, `"7.1"`, "fuels.syn.kinetic_theory.lj_diameter: a bare number is metres"},
 		{"syntax", `mode = "pre-cracked"`, `mode = "pre-cracked`, "test.toml:5: TOML syntax"},
 	} {
 		src := strings.Replace(fuelsSrc, c.from, c.to, 1)

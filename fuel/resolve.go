@@ -542,11 +542,11 @@ func (s Spec) transport(W float64) (chem.TransportParams, string, error) {
 	}
 	t := s.Transport
 	if !(t.WellDepth > 0) || t.Diameter == 0 {
-		return chem.TransportParams{}, "", fmt.Errorf("transport: give both well_depth (K) and diameter (e.g. \"7.1 Å\")")
+		return chem.TransportParams{}, "", fmt.Errorf("kinetic_theory: give both lj_well_depth_K and lj_diameter (e.g. \"7.1 Å\")")
 	}
 	d := t.Diameter
 	if !(d > 1e-10 && d < 3e-9) {
-		return chem.TransportParams{}, "", fmt.Errorf("transport.diameter %g m is outside 1-30 Å", d)
+		return chem.TransportParams{}, "", fmt.Errorf("kinetic_theory.lj_diameter %g m is outside 1-30 Å", d)
 	}
 	return chem.TransportParams{Geometry: chem.Nonlinear, WellDepth: t.WellDepth, Diameter: d, RotRelaxation: 1}, "given in the fuel definition", nil
 }

@@ -46,7 +46,7 @@ func EstimateTransport(W float64) (chem.TransportParams, error) {
 	wg := W * 1e3
 	first, last := alkaneCritical[0], alkaneCritical[len(alkaneCritical)-1]
 	if !(wg >= first.W && wg <= last.W) {
-		return chem.TransportParams{}, fmt.Errorf("transport estimate: molar mass %.4g g/mol is outside the n-alkane range %.5g-%.5g g/mol (C5-C16) of the correlation; give [transport] well_depth and diameter for this fuel",
+		return chem.TransportParams{}, fmt.Errorf("transport estimate: molar mass %.4g g/mol is outside the n-alkane range %.5g-%.5g g/mol (C5-C16) of the correlation; give [fuels.NAME.kinetic_theory] lj_well_depth_K and lj_diameter for this fuel",
 			wg, first.W, last.W)
 	}
 	i := 1

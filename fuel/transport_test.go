@@ -40,7 +40,7 @@ func TestEstimateTransport(t *testing.T) {
 		}
 		prevE, prevS = p.WellDepth, p.Diameter
 	}
-	if _, err := EstimateTransport(0.4); err == nil || !strings.Contains(err.Error(), "give [transport]") {
-		t.Errorf("C28-like molar mass: err = %v, want a refusal naming [transport]", err)
+	if _, err := EstimateTransport(0.4); err == nil || !strings.Contains(err.Error(), "give [fuels.NAME.kinetic_theory]") {
+		t.Errorf("C28-like molar mass: err = %v, want a refusal naming the kinetic_theory table", err)
 	}
 }
