@@ -260,6 +260,15 @@ const (
 	transientNewtonIterations = 10
 	// timeStepCut multiplies dt after a failed pseudo-time step.
 	timeStepCut = 0.5
+	// A steady Newton attempt is abandoned for pseudo-time steps after
+	// maxStalls accepted steps in a row damped to stallDamping or less
+	// whose contraction exceeds stallContraction: each costs a Jacobian and
+	// moves the state by a few per mille of the Newton step. On the H2/air
+	// cold start the first steady attempt took 17 such steps before it
+	// failed.
+	stallDamping     = 1.0 / 16
+	stallContraction = 0.95
+	maxStalls        = 4
 )
 
 // fdPerturbation is the relative and absolute finite-difference increment,
@@ -289,7 +298,12 @@ var fdPerturbation = math.Sqrt(0x1p-52)
 // and then tries steady Newton again: the alternation used for premixed
 // flames by Smooke, Miller & Kee, Combust. Sci. Technol. 34 (1983) 79–90.
 // w comes from the Transient interface (1 for every
-// unknown otherwise) evaluated at u_old.
+// unknown otherwise) evaluated at u_old. A steady attempt also counts as
+// failed once maxStalls steps in a row were heavily damped and hardly
+// contracted. While the iteration contracts well, the factors of
+// J + diag(w/dt_old) are kept for the next pseudo-time step (dt only shifts
+// the diagonal); they are brought up to date before a failed step is
+// retried with a new Jacobian.
 //
 // On success u holds the solution. Otherwise u holds the last accepted state
 // and the error wraps ErrNotConverged and says why. Solve allocates its work
@@ -342,6 +356,16 @@ type solver struct {
 	jacValid bool              // J holds ∂F/∂u at some earlier accepted state
 	factored bool              // J's factors match its current values
 	jacAge   int               // accepted steps since J was evaluated
+
+	// shiftStale: the factors were made with the diagonal shift of an
+	// earlier pseudo-time step (w/dt_old, not w/dt). The time step only
+	// shifts the diagonal, so the old factors still give a convergent
+	// simplified Newton iteration while its contraction stays good; a
+	// failed step or a convergence decision on such factors brings the
+	// shift up to date first (a factorisation, not a Jacobian).
+	// shiftTransient: the factors are of a pseudo-time system; contracting:
+	// the last accepted step was undamped with contraction ≤ reuseContraction.
+	shiftStale, shiftTransient, contracting bool
 
 	steadySteps  int  // accepted steady Newton steps, for Event.Iteration
 	haveResidual bool // s.f holds F at the accepted state
@@ -482,8 +506,10 @@ type linearSystem interface {
 }
 
 // factor brings the diagonal shift of J to that of the current system
-// (w/dt or none) and factors J if needed.
-func (s *solver) factor() error {
+// (w/dt or none) and factors J if needed. Between pseudo-time steps, while
+// the Newton iteration contracts well, the factors of the previous step's
+// shift are kept (see shiftStale) unless exact is set.
+func (s *solver) factor(exact bool) error {
 	changed := false
 	for i := range s.applied {
 		want := 0.0
@@ -492,17 +518,25 @@ func (s *solver) factor() error {
 		}
 		s.shift[i] = want - s.applied[i]
 		if want != s.applied[i] {
-			s.applied[i] = want
 			changed = true
 		}
 	}
+	if changed && !exact && s.factored && s.transient && s.shiftTransient && s.contracting {
+		s.shiftStale = true
+		return nil
+	}
 	if changed {
+		for i, d := range s.shift {
+			s.applied[i] += d
+		}
 		s.lin.AddDiagonal(s.shift)
 		s.factored = false
 	}
+	s.shiftStale = false
 	if s.factored {
 		return nil
 	}
+	s.shiftTransient = s.transient
 	t0 := time.Now()
 	err := s.lin.Factor()
 	s.res.FactorTime += time.Since(t0)
@@ -673,7 +707,19 @@ func (s *solver) failure(nf *newtonFailure, maxIter int) error {
 func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 	needFresh := !s.jacValid || s.jacAge >= s.opt.MaxJacobianAge
 	haveStep := false // s.dubar is the step at u with the current factors
+	exact := false    // bring the factors' diagonal shift up to date
+	// renew answers a failure with factors that are not exact at u: the
+	// diagonal shift is brought up to date first, then J renewed.
+	renew := func() {
+		if s.shiftStale {
+			exact = true
+		} else {
+			needFresh = true
+		}
+		haveStep = false
+	}
 	var nf newtonFailure
+	stalls := 0 // consecutive steady steps that barely moved
 	for it := 0; it < maxIter; it++ {
 		if needFresh {
 			if err := s.refreshJacobian(u); err != nil {
@@ -681,14 +727,14 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			}
 			needFresh, haveStep = false, false
 		}
-		fresh := s.jacAge == 0 // J was evaluated at u
-		if err := s.factor(); err != nil {
-			if fresh {
+		if err := s.factor(exact); err != nil {
+			if s.jacAge == 0 {
 				return false, err
 			}
 			needFresh = true
 			continue
 		}
+		fresh := s.jacAge == 0 && !s.shiftStale // J + shift evaluated at u
 		s.setWeights(u)
 		var raw float64
 		if haveStep {
@@ -708,7 +754,7 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 				i := s.largest(s.du)
 				return false, fmt.Errorf("the Newton step only pushes unknowns outside their bounds (largest: point %d, component %d at its bound, scaled step %.3g)", i/s.b, i%s.b, raw)
 			}
-			needFresh = true
+			renew()
 			continue
 		}
 		s.project(u, s.du)
@@ -716,7 +762,7 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 			if fresh {
 				return false, fmt.Errorf("Newton step is %g", raw)
 			}
-			needFresh = true
+			renew()
 			continue
 		}
 		if raw == 0 {
@@ -760,9 +806,9 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 		}
 		if !accepted {
 			if !fresh {
-				// A Jacobian from an earlier state may point the wrong way;
-				// retry with a new one before damping further.
-				needFresh, haveStep = true, false
+				// A Jacobian from an earlier state (or shift) may point the
+				// wrong way; retry with a new one before damping further.
+				renew()
 				continue
 			}
 			return false, s.failure(&nf, maxIter)
@@ -770,7 +816,22 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 		s.accept(u)
 		s.recordSteady(raw, lam)
 		haveStep = true
-		needFresh = lam < 1 || nf.theta > reuseContraction || s.jacAge >= s.opt.MaxJacobianAge
+		s.contracting = lam == 1 && nf.theta <= reuseContraction
+		if !s.transient && lam <= stallDamping && nf.theta > stallContraction {
+			stalls++
+		} else {
+			stalls = 0
+		}
+		if stalls >= maxStalls && s.opt.MaxTimeStepAttempts > 0 {
+			// Heavily damped steps that hardly contract, each with a
+			// fresh Jacobian: the state is outside the basin of steady
+			// Newton, and pseudo-time steps are the cheaper way in.
+			return false, fmt.Errorf("steady Newton stalled: %d steps in a row damped to %g or less with contraction above %g (last %.3g)", stalls, stallDamping, stallContraction, nf.theta)
+		}
+		needFresh = s.jacAge >= s.opt.MaxJacobianAge
+		if !s.contracting {
+			renew()
+		}
 		nf = newtonFailure{kind: failIterations, s0: raw, theta: nf.theta}
 	}
 	return false, s.failure(&nf, maxIter)
@@ -819,6 +880,7 @@ func (s *solver) timeSteps(u []float64, dt *float64) error {
 		}
 		copy(u, s.uOld)
 		copy(s.f, s.fOld)
+		s.contracting = false
 		if s.jacAge == 0 {
 			s.jacAge = 1 // J was evaluated at a state just discarded
 		}
