@@ -76,7 +76,7 @@ var robustnessDozen = []robustnessCase{
 // are kept out of the default run; FLAME1D_ROBUSTNESS=failures runs them).
 var robustnessKnownFailures = []robustnessCase{
 	{"smith1999-natgas", "CH4", 1.6, 300, 40}, // converged before the rebase onto main
-	{"smith1999-natgas", "CH4", 0.5, 300, 40},
+	{"smith1999-natgas", "CH4", 0.5, 300, 40}, // converges, slowly: 3817 Newton iterations, 84 s under load
 	{"burke2012-hydrogen", "H2", 0.3, 500, 40},
 	{"burke2012-hydrogen", "H2", 0.5, 700, 10},
 }
