@@ -372,11 +372,8 @@ func inletDensity(ph *physics, in Inlet) float64 {
 // sensitivities and Monte-Carlo sampling of rate constants use it.
 func (s *Solver) SolveOnGrid(prev *Solution, in Inlet, set Settings) (*Solution, error) {
 	start := time.Now()
-	set = withDefaults(set)
-	if err := s.checkInlet(in); err != nil {
-		return nil, err
-	}
-	if err := s.checkDiffusionScale(set); err != nil {
+	set, err := s.prepare(in, set)
+	if err != nil {
 		return nil, err
 	}
 	if err := s.compatible(prev); err != nil {

@@ -20,11 +20,8 @@ import (
 // of the grid when a solve fails.
 func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	start := time.Now()
-	set = withDefaults(set)
-	if err := s.checkInlet(in); err != nil {
-		return nil, err
-	}
-	if err := s.checkDiffusionScale(set); err != nil {
+	set, err := s.prepare(in, set)
+	if err != nil {
 		return nil, err
 	}
 	eq, err := adiabaticEquilibrium(s.ph, in)

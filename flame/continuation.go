@@ -14,11 +14,8 @@ import (
 // state and solved with the full equations.
 func (s *Solver) SolveFrom(prev *Solution, in Inlet, set Settings) (*Solution, error) {
 	start := time.Now()
-	set = withDefaults(set)
-	if err := s.checkInlet(in); err != nil {
-		return nil, err
-	}
-	if err := s.checkDiffusionScale(set); err != nil {
+	set, err := s.prepare(in, set)
+	if err != nil {
 		return nil, err
 	}
 	if err := s.compatible(prev); err != nil {

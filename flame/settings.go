@@ -151,3 +151,13 @@ func (s *Stats) add(r newton.Result, residuals int) {
 	s.FactorTime += r.FactorTime
 	s.SolveTime += r.SolveTime
 }
+
+// prepare fills the defaults of set and checks the inlet and the settings'
+// per-species diffusion scales, as every solve does first.
+func (s *Solver) prepare(in Inlet, set Settings) (Settings, error) {
+	set = withDefaults(set)
+	if err := s.checkInlet(in); err != nil {
+		return set, err
+	}
+	return set, s.checkDiffusionScale(set)
+}

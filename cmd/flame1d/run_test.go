@@ -8,11 +8,18 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/spf13/cobra"
 )
 
 func runRun(t *testing.T, args ...string) (string, string, error) {
 	t.Helper()
-	cmd := newRunCmd()
+	return execute(newRunCmd(), args...)
+}
+
+// execute runs a command with args and returns what it printed on stdout
+// and stderr.
+func execute(cmd *cobra.Command, args ...string) (string, string, error) {
 	var out, errOut bytes.Buffer
 	cmd.SetOut(&out)
 	cmd.SetErr(&errOut)

@@ -16,13 +16,7 @@ import (
 
 func runCompare(t *testing.T, args ...string) (string, string, error) {
 	t.Helper()
-	cmd := newCompareCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	err := cmd.Execute()
-	return out.String(), errOut.String(), err
+	return execute(newCompareCmd(), args...)
 }
 
 // tree lists every path below root, relative and sorted.

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"bytes"
 	"os"
 	"path/filepath"
 	"strings"
@@ -10,13 +9,7 @@ import (
 
 func runValidate(t *testing.T, args ...string) (string, string, error) {
 	t.Helper()
-	cmd := newValidateCmd()
-	var out, errOut bytes.Buffer
-	cmd.SetOut(&out)
-	cmd.SetErr(&errOut)
-	cmd.SetArgs(args)
-	err := cmd.Execute()
-	return out.String(), errOut.String(), err
+	return execute(newValidateCmd(), args...)
 }
 
 // Bad flags are refused before any flame is solved, naming what to give.
