@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 	"time"
 
 	"flame1d/grid"
@@ -13,11 +14,13 @@ import (
 // Solve computes the flame for the inlet, starting from a built-in initial
 // guess (unburned gas joined to adiabatic equilibrium products) whose mass
 // flux comes from a flame-speed estimate (startSpeed). If that start fails,
-// it is retried with the guess four times lower or higher, the side read
-// from the failure: a mass flux that fell during the failed attempt asks
-// for a slower start, one that rose for a faster one. Only if all three
-// fail is the first guess tried once more, allowed to halve every interval
-// of the grid when a solve fails.
+// it is retried up to coldStartRetries times with the guess four times lower
+// or higher, the side read from each failure: a mass flux that fell during
+// the failed attempt asks for a slower start, one that rose for a faster one
+// (the estimate can be off by more than a factor of ten: lean hydrogen at
+// high pressure). A side whose neighbour was already tried is approached by
+// a factor of two instead. Only if all fail is the estimate tried once more,
+// allowed to halve every interval of the grid when a solve fails.
 func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	start := time.Now()
 	set, err := s.prepare(in, set)
@@ -32,37 +35,32 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	speed := startSpeed(in, eq.T)
 	tried := []float64{speed}
 	sol, err := s.coldStart(in, eq, set, speed, firstStart, &stats)
+	first := err
+	for r := 0; r < coldStartRetries && err != nil && errors.Is(err, ErrNotConverged); r++ {
+		prev := tried[len(tried)-1]
+		next := nextStartSpeed(prev, sol == nil || sol.MassFlux() < sol.startFlux, tried)
+		s.report(set, "restart", 0, fmt.Sprintf("start-up with a %.2g m/s flame-speed guess failed; retrying with %.2g m/s", prev, next))
+		tried = append(tried, next)
+		sol, err = s.coldStart(in, eq, set, next, retry, &stats)
+	}
 	if err != nil && errors.Is(err, ErrNotConverged) {
-		first := err
-		lower, higher := speed/coldStartRetryFactor, speed*coldStartRetryFactor
-		order := []float64{higher, lower}
-		if sol == nil || sol.MassFlux() < sol.startFlux {
-			order = []float64{lower, higher}
-		}
-		for _, v := range order {
-			s.report(set, "restart", 0, fmt.Sprintf("start-up with a %.2g m/s flame-speed guess failed; retrying with %.2g m/s", tried[len(tried)-1], v))
-			tried = append(tried, v)
-			if sol, err = s.coldStart(in, eq, set, v, retry, &stats); err == nil || !errors.Is(err, ErrNotConverged) {
-				break
-			}
-		}
 		// Last resort: the estimate again, or the 0.4 m/s it is calibrated
-		// to when that is more than twice away (the estimate knows nothing
-		// of a fuel's own chemistry and diffusion: lean hydrogen burns ten
-		// times faster than its adiabatic temperature suggests), now allowed
-		// to halve every interval of the grid (twice) when a solve fails:
-		// thin flames can be lost between the points of a coarse grid.
+		// to when that is more than twice away, now allowed to halve every
+		// interval of the grid (twice) when a solve fails: thin flames can
+		// be lost between the points of a coarse grid.
 		last := speed
 		if speed > 2*referenceSpeed || speed < referenceSpeed/2 {
 			last = referenceSpeed
 		}
+		s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s, refining the whole grid on failure", last))
+		sol, err = s.coldStart(in, eq, set, last, lastResort, &stats)
 		if err != nil && errors.Is(err, ErrNotConverged) {
-			s.report(set, "restart", 0, fmt.Sprintf("retrying with %.2g m/s, refining the whole grid on failure", last))
-			sol, err = s.coldStart(in, eq, set, last, lastResort, &stats)
-		}
-		if err != nil && errors.Is(err, ErrNotConverged) {
-			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %.2g, %.2g and %.2g m/s, and %.2g m/s with whole-grid refinement)",
-				first, tried[0], tried[1], tried[2], last)
+			guesses := make([]string, len(tried))
+			for i, v := range tried {
+				guesses[i] = fmt.Sprintf("%.2g", v)
+			}
+			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %s m/s, and %.2g m/s with whole-grid refinement)",
+				first, strings.Join(guesses, ", "), last)
 		}
 	}
 	if err != nil {
@@ -71,6 +69,36 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 	stats.WallTime = time.Since(start)
 	sol.Stats = stats
 	return sol, nil
+}
+
+// coldStartRetries is the number of start-up retries with other flame-speed
+// guesses before the last resort.
+const coldStartRetries = 3
+
+// nextStartSpeed returns the flame-speed guess after a failed start from
+// prev: coldStartRetryFactor times lower when slower is true, else higher;
+// when a guess within a factor 1.5 of that was already tried, the square
+// root of the factor (between the two), and when that too was tried, the
+// other side.
+func nextStartSpeed(prev float64, slower bool, tried []float64) float64 {
+	near := func(v float64) bool {
+		for _, t := range tried {
+			if v < 1.5*t && t < 1.5*v {
+				return true
+			}
+		}
+		return false
+	}
+	f := float64(coldStartRetryFactor)
+	if slower {
+		f = 1 / f
+	}
+	for _, g := range []float64{f, math.Sqrt(f), 1 / f, 1 / math.Sqrt(f)} {
+		if v := prev * g; !near(v) {
+			return v
+		}
+	}
+	return prev * f * f
 }
 
 // startKind says which attempt of a cold start this is.

@@ -217,6 +217,28 @@ func TestStartSpeed(t *testing.T) {
 	}
 }
 
+// The retries of a cold start follow the failed attempts' mass flux four
+// times at a time, and step by two between guesses already tried.
+func TestNextStartSpeed(t *testing.T) {
+	near := func(a, b float64) bool { return math.Abs(a-b) < 1e-12*b }
+	for _, c := range []struct {
+		prev   float64
+		slower bool
+		tried  []float64
+		want   float64
+	}{
+		{0.1, false, []float64{0.1}, 0.4},
+		{0.4, false, []float64{0.1, 0.4}, 1.6},
+		{0.4, true, []float64{0.1, 0.4}, 0.2},                  // 0.1 tried: halfway (factor 2)
+		{0.4, true, []float64{0.1, 0.2, 0.4}, 1.6},             // both lower guesses tried: the other side
+		{0.4, true, []float64{0.1, 0.2, 0.4, 0.8, 1.6}, 0.025}, // all four tried: sixteen times lower
+	} {
+		if v := nextStartSpeed(c.prev, c.slower, c.tried); !near(v, c.want) {
+			t.Errorf("after %g m/s (slower %v, tried %v): %g m/s, want %g", c.prev, c.slower, c.tried, v, c.want)
+		}
+	}
+}
+
 // The anchor sits at most a quarter of the way up the temperature rise, so
 // a weak flame is pinned inside its own rise; strong flames keep the
 // setting.

@@ -576,3 +576,48 @@ func TestTimeStepsFirst(t *testing.T) {
 		t.Errorf("u = %v, want %v", u, p.target)
 	}
 }
+
+// firstTransient records the state at which the first pseudo-time step
+// starts.
+type firstTransient struct {
+	cubicChain
+	first []float64
+}
+
+func (p *firstTransient) TransientWeights(x, w []float64) {
+	if p.first == nil {
+		p.first = append([]float64(nil), x...)
+	}
+	p.cubicChain.TransientWeights(x, w)
+}
+
+// A failed steady attempt hands the pseudo-time steps the state it started
+// from, not the one its damped steps reached: on the cubic chain steady
+// Newton accepts steps towards the stationary point u = 1 before it
+// fails, and time stepping must begin at the initial state nonetheless.
+func TestTimeStepsStartWhereSteadyStarted(t *testing.T) {
+	p := &firstTransient{cubicChain: cubicChain{n: 15, kappa: 0.05}}
+	x := make([]float64, 30)
+	for j := range 15 {
+		x[j*2] = 1.5 + 0.1*math.Sin(float64(j))
+		x[j*2+1] = x[j*2] * x[j*2]
+	}
+	start := append([]float64(nil), x...)
+	var steadySteps int
+	opt := DefaultOptions(2)
+	opt.TimeStep, opt.MaxTimeStep = 0.05, 1
+	opt.Progress = func(e Event) {
+		if e.Stage == "newton" && p.first == nil {
+			steadySteps++
+		}
+	}
+	if _, err := Solve(p, x, opt); err != nil {
+		t.Fatal(err)
+	}
+	if steadySteps == 0 {
+		t.Fatal("no steady step accepted before the time steps; the test needs a steady attempt that moves the state")
+	}
+	if d := maxAbsDiff(p.first, start); d != 0 {
+		t.Errorf("first pseudo-time step began %g away from the initial state after %d accepted steady steps; want at the initial state", d, steadySteps)
+	}
+}

@@ -130,14 +130,6 @@ func TestCrackedPoolAccuracyNHeptane(t *testing.T) {
 	if testing.Short() {
 		t.Skip("n-heptane flames")
 	}
-	// Known regression (issue 10): since the cold-start rework the pools'
-	// finite-rate pseudo-fuel flames on lu2009-heptane no longer start
-	// cold in reasonable time (the test ran for over 20 minutes instead of
-	// about one), as n-heptane/air at 450 K no longer does. Until the cold
-	// start is mended this measurement runs only on request.
-	if os.Getenv("FLAME1D_FULL_ACCURACY") == "" && os.Getenv("FLAME1D_POOL_ACCURACY") == "" {
-		t.Skip("n-heptane pool cold starts regressed (issue 10); FLAME1D_POOL_ACCURACY=1 runs phi 0.8/1.0/1.3")
-	}
 	phis := []float64{0.8, 1.0, 1.3}
 	if os.Getenv("FLAME1D_FULL_ACCURACY") != "" {
 		phis = []float64{0.7, 0.8, 0.9, 1.0, 1.1, 1.2, 1.3, 1.4}
