@@ -378,6 +378,9 @@ type solver struct {
 
 	f, ft, du, dubar, ut, wt, uOld, fOld, fSteady, w []float64
 	uStart, fStart                                   []float64 // state and residual before a steady attempt
+	// relaxAlgebraic: time steps no longer count outward pushes on
+	// algebraic unknowns at their bounds (transientNorm).
+	relaxAlgebraic bool
 
 	fdResidual func(u, f []float64) error
 }
@@ -635,6 +638,28 @@ func (s *solver) projectedNorm(u, dx []float64) float64 {
 	return m
 }
 
+// transientNorm is the scaled norm of dx at u inside a pseudo-time step
+// once pseudo-time stepping has failed down to its minimum step
+// (solver.relaxAlgebraic),
+// leaving out components that push an algebraic unknown (transient weight
+// 0: a boundary condition, a mass-flux row) on its bound outward. Such a
+// push does not shrink with the time step, and a step that keeps the
+// unknown on its bound is as good as the time step can do; a differential
+// unknown pushed outward still counts, its push shrinking with dt.
+func (s *solver) transientNorm(u, dx []float64) float64 {
+	m := 0.0
+	for i, v := range dx {
+		if s.w[i] == 0 && s.outward(u, dx, i) {
+			continue
+		}
+		a := math.Abs(v) * s.wt[i]
+		if a > m || math.IsNaN(a) {
+			m = a
+		}
+	}
+	return m
+}
+
 // setWeights sets the scaling 1/(RelTol_c·|u_i| + AbsTol_c) at u.
 func (s *solver) setWeights(u []float64) {
 	b := s.b
@@ -774,6 +799,8 @@ func (s *solver) newton(u []float64, maxIter int) (bool, error) {
 		s0 := s.projectedNorm(u, s.du)
 		if s.opt.ProjectedConvergence && !math.IsNaN(raw) {
 			raw = s0
+		} else if s.transient && s.relaxAlgebraic && !math.IsNaN(raw) {
+			raw = s.transientNorm(u, s.du)
 		}
 		if s0 == 0 && raw > 0 && !math.IsNaN(raw) && !math.IsInf(raw, 0) {
 			// Every component left is pushed outward at its bound: the
@@ -914,6 +941,14 @@ func (s *solver) timeSteps(u []float64, dt *float64) error {
 		}
 		*dt *= timeStepCut
 		if *dt < s.opt.MinTimeStep {
+			if !s.relaxAlgebraic {
+				// Perhaps an algebraic unknown held on its bound (see
+				// transientNorm): go on without counting its push, from
+				// the first time step again.
+				s.relaxAlgebraic = true
+				*dt = s.opt.TimeStep
+				continue
+			}
 			return fmt.Errorf("time step fell below the minimum %g: %w", s.opt.MinTimeStep, err)
 		}
 	}

@@ -621,3 +621,49 @@ func TestTimeStepsStartWhereSteadyStarted(t *testing.T) {
 		t.Errorf("first pseudo-time step began %g away from the initial state after %d accepted steady steps; want at the initial state", d, steadySteps)
 	}
 }
+
+// boundedAlgebraic has a differential unknown per point with root 0.5 and an
+// algebraic one (transient weight 0) whose root -1 lies below its bound 0.
+type boundedAlgebraic struct{ n int }
+
+func (p *boundedAlgebraic) Size() (int, int) { return p.n, 2 }
+
+func (p *boundedAlgebraic) Residual(u, f []float64) error {
+	for j := range p.n {
+		f[2*j] = u[2*j] - 0.5
+		f[2*j+1] = u[2*j+1] + 1
+	}
+	return nil
+}
+
+func (p *boundedAlgebraic) TransientWeights(u, w []float64) {
+	for j := range p.n {
+		w[2*j], w[2*j+1] = 1, 0
+	}
+}
+
+// An algebraic unknown held on its bound by an outward push must not stop
+// pseudo-time stepping: the push does not shrink with the time step, so
+// time steps that counted it would fail down to the minimum step. The
+// steady problem has no root in the box, so Solve still fails, but after
+// taking its time steps, with the differential unknowns at their roots.
+func TestTimeStepsPastAlgebraicBound(t *testing.T) {
+	p := &boundedAlgebraic{n: 3}
+	u := []float64{2, 0, 2, 0, 2, 0}
+	opt := DefaultOptions(2)
+	opt.Lower[1] = 0
+	opt.MaxTimeStepAttempts = 1
+	opt.TimeStep, opt.MaxTimeStep = 10, 1e6
+	res, err := Solve(p, u, opt)
+	if err == nil || strings.Contains(err.Error(), "below the minimum") {
+		t.Fatalf("error %v; want a failure of the steady attempt after the time steps, not of the time steps", err)
+	}
+	if res.TimeSteps != opt.StepsPerAttempt {
+		t.Errorf("%d time steps taken, want %d", res.TimeSteps, opt.StepsPerAttempt)
+	}
+	for j := range 3 {
+		if math.Abs(u[2*j]-0.5) > 1e-6 || u[2*j+1] != 0 {
+			t.Errorf("point %d: (%g, %g), want (0.5, 0): the differential unknown at its root, the algebraic one on its bound", j, u[2*j], u[2*j+1])
+		}
+	}
+}
