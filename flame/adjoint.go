@@ -112,19 +112,20 @@ func (s *Solver) Sensitivities(sol *Solution, set Settings, req SensitivityReque
 	u := append([]float64(nil), sol.U...)
 	f0 := make([]float64, len(u))
 	evals := 0
-	residual := func(u, f []float64) error {
-		evals++
-		return pr.Residual(u, f)
+	residualWith := func(e evaluation) func(u, f []float64) error {
+		return func(u, f []float64) error {
+			evals++
+			return pr.evaluate(u, f, e)
+		}
 	}
+	residual := residualWith(full)
 
 	J := newton.NewBlockTridiagonal(n, b)
 	pr.midpointTransport = newMidpointTransport(ph.transport, n-1, K, !set.NoThermalDiffusion)
 	if err := residual(u, f0); err != nil {
 		return nil, fmt.Errorf("sensitivities: residual at the solution: %w", err)
 	}
-	pr.frozenChem = true
-	err := newton.FiniteDifferenceJacobian(residual, u, f0, J, 1e-7, 1e-12)
-	pr.frozenChem = false
+	err := newton.FiniteDifferenceJacobian(residualWith(frozenChemistry), u, f0, J, 1e-7, 1e-12)
 	if err != nil {
 		return nil, fmt.Errorf("sensitivities: Jacobian: %w", err)
 	}
@@ -149,7 +150,7 @@ func (s *Solver) Sensitivities(sol *Solution, set Settings, req SensitivityReque
 		return nil, err
 	}
 
-	if out.Diffusion, err = s.diffusionSensitivities(pr, set, u, f0, lambda, m, req.DiffusionSpecies, residual); err != nil {
+	if out.Diffusion, err = s.diffusionSensitivities(pr, set, u, f0, lambda, m, req.DiffusionSpecies, residualWith(frozenProperties)); err != nil {
 		return nil, err
 	}
 
@@ -462,11 +463,7 @@ func (s *Solver) diffusionSensitivities(pr *problem, set Settings, u, f0, lambda
 		}
 	}
 	pr.diffusionScale = scale
-	pr.frozen, pr.frozenChem = true, true
-	defer func() {
-		pr.frozen, pr.frozenChem = false, false
-		pr.diffusionScale = set.DiffusionScale
-	}()
+	defer func() { pr.diffusionScale = set.DiffusionScale }()
 	fp := make([]float64, len(u))
 	var out []ParameterSensitivity
 	for _, k := range species {

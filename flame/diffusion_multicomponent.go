@@ -77,12 +77,12 @@ func (p *problem) setDiffusion(model DiffusionModel) {
 //
 // discretised like the mixture-averaged flux: differences across the face,
 // properties at the face mean state; j_k = (rho/W) W_k X_k V_k. While the
-// Jacobian is formed (p.frozen) the factorised system, chi_k/T and rho/W of
+// Jacobian is formed (transport frozen) the factorised system, chi_k/T and rho/W of
 // the base state are reused, so a perturbed flux costs one pair of
 // triangular solves, and a face whose points are not perturbed none.
 // A state the properties cannot be evaluated at gives NaN fluxes, which the
 // residual reports.
-func (p *problem) multicomponentFlux(w *worker, u []float64, j int) {
+func (p *problem) multicomponentFlux(w *worker, u []float64, j int, e evaluation) {
 	K := p.ph.nSpecies
 	f := p.multi
 	a, b := j*p.b, (j+1)*p.b
@@ -92,11 +92,12 @@ func (p *problem) multicomponentFlux(w *worker, u []float64, j int) {
 	ends := u[a : b+p.b]
 	base := f.baseU[j*2*p.b : (j+1)*2*p.b]
 	baseFlux := f.baseFlux[j*K : (j+1)*K]
-	if p.frozen && slices.Equal(ends, base) {
+	frozen := e.transportFrozen
+	if frozen && slices.Equal(ends, base) {
 		copy(fl, baseFlux)
 		return
 	}
-	if !p.frozen {
+	if !frozen {
 		Tm, _ := p.midpointState(w, u, j)
 		props := &w.mc.props
 		if err := w.tr.Multicomponent(Tm, p.pressure, w.xMid, f.systems[j], props); err != nil {
@@ -126,7 +127,7 @@ func (p *problem) multicomponentFlux(w *worker, u []float64, j int) {
 	for k := range fl {
 		fl[k] = c * p.ph.molarMass[k] * d[k]
 	}
-	if !p.frozen {
+	if !frozen {
 		copy(base, ends)
 		copy(baseFlux, fl)
 	}

@@ -93,10 +93,10 @@ func (s *Solver) ElementFluxes(sol *Solution, set Settings) (elements []string, 
 	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, !set.NoThermalDiffusion, 1)
 	pr.central = set.CentralConvection
 	pr.setDiffusion(set.Diffusion)
-	if err := pr.pointProperties(sol.U); err != nil {
+	if err := pr.pointProperties(sol.U, full); err != nil {
 		return nil, nil, err
 	}
-	pr.midpointFluxes(sol.U)
+	pr.midpointFluxes(sol.U, full)
 	elements = ph.mech.Elements
 	m := sol.MassFlux()
 	for j := 0; j+1 < sol.Points(); j++ {
@@ -137,10 +137,10 @@ func (s *Solver) PyrolysisYields(sol *Solution, fuelName string, pool []string, 
 	pr := newProblem(ph, sol.X, sol.Inlet.T, sol.Inlet.P, sol.Inlet.Y, !set.NoThermalDiffusion, 1)
 	pr.central = set.CentralConvection
 	pr.setDiffusion(set.Diffusion)
-	if err := pr.pointProperties(sol.U); err != nil {
+	if err := pr.pointProperties(sol.U, full); err != nil {
 		return nil, err
 	}
-	pr.midpointFluxes(sol.U)
+	pr.midpointFluxes(sol.U, full)
 	j := 0
 	for j+2 < sol.Points() && 0.5*(sol.X[j+1]+sol.X[j+2]) <= x {
 		j++

@@ -105,16 +105,13 @@ type problem struct {
 	// sensitivities, flame/adjoint.go).
 	midpointTransport []midpointTransport
 	workers           []*worker
-	// During Jacobian evaluation: frozen reuses the midpoint transport
-	// properties of the base state and frozenChem its production rates.
-	frozen, frozenChem bool
-	haveTransport      bool
+	haveTransport     bool
 	// evaluations counts Residual calls, finite-difference ones included.
 	evaluations int
 	// Species thermodynamics cache: thermoCpk and thermoHk hold cp_k and
 	// h_k of point j at temperature thermoT[j] (NaN: empty). They depend on
 	// T alone, so a residual reuses them wherever T_j is unchanged; only
-	// unfrozen evaluations refill the cache, so the perturbed residuals of
+	// evaluations with live transport refill the cache, so the perturbed residuals of
 	// a finite-difference Jacobian (one column in B perturbs T) recompute
 	// the thermodynamics only where T was perturbed.
 	thermoT, thermoCpk, thermoHk []float64
@@ -200,8 +197,32 @@ type errNonPhysical struct{ msg string }
 
 func (e errNonPhysical) Error() string { return e.msg }
 
-// pointProperties fills the per-point thermodynamic state and chemistry.
-func (p *problem) pointProperties(u []float64) error {
+// evaluation says what a residual evaluation takes from the last full
+// evaluation instead of computing it at u. Fluxes, convection and
+// thermodynamics are always computed at u.
+type evaluation struct {
+	transportFrozen bool // midpoint transport properties
+	chemistryFrozen bool // production rates
+}
+
+var (
+	// full: everything at u; the caches are refilled.
+	full = evaluation{}
+	// frozenChemistry: the full-property Jacobian of the sensitivities,
+	// whose chemistry is added analytically.
+	frozenChemistry = evaluation{chemistryFrozen: true}
+	// frozenProperties: Newton's finite-difference Jacobian.
+	frozenProperties = evaluation{transportFrozen: true, chemistryFrozen: true}
+)
+
+// residualWith returns the residual evaluated as e says.
+func (p *problem) residualWith(e evaluation) func(u, f []float64) error {
+	return func(u, f []float64) error { return p.evaluate(u, f, e) }
+}
+
+// pointProperties fills the per-point thermodynamic state and, in a full
+// evaluation, the production rates.
+func (p *problem) pointProperties(u []float64, e evaluation) error {
 	K := p.ph.nSpecies
 	var bad error
 	var mu sync.Mutex
@@ -242,7 +263,7 @@ func (p *problem) pointProperties(u []float64) error {
 					cpk[k] = th.CpR(T) * thermo.GasConstant * p.ph.invW[k]
 					hk[k] = th.HRT(T) * thermo.GasConstant * T
 				}
-				if !p.frozen {
+				if !e.transportFrozen {
 					copy(p.thermoCpk[j*K:(j+1)*K], cpk)
 					copy(p.thermoHk[j*K:(j+1)*K], hk)
 					p.thermoT[j] = T
@@ -255,7 +276,7 @@ func (p *problem) pointProperties(u []float64) error {
 				w.conc[k] = rho * Y[k] * p.ph.invW[k]
 			}
 			p.cp[j] = cpMix
-			if !p.frozenChem {
+			if !e.chemistryFrozen {
 				w.kin.NetProductionRates(T, w.conc, p.wdot[j*K:(j+1)*K])
 			}
 		}
@@ -264,13 +285,13 @@ func (p *problem) pointProperties(u []float64) error {
 }
 
 // midpointFluxes evaluates transport properties at cell midpoints (unless
-// frozen) and the corrected diffusive mass fluxes j_k.
-func (p *problem) midpointFluxes(u []float64) {
+// e freezes them) and the corrected diffusive mass fluxes j_k.
+func (p *problem) midpointFluxes(u []float64, e evaluation) {
 	K := p.ph.nSpecies
 	p.parallel(p.n-1, func(w *worker, lo, hi int) {
 		for j := lo; j < hi; j++ {
 			if p.multi != nil {
-				p.multicomponentFlux(w, u, j)
+				p.multicomponentFlux(w, u, j, e)
 				continue
 			}
 			a, b := j*p.b, (j+1)*p.b
@@ -278,7 +299,7 @@ func (p *problem) midpointFluxes(u []float64) {
 			dx := p.x[j+1] - p.x[j]
 			rhoD := p.rhoD[j*K : (j+1)*K]
 			rhoDT := p.rhoDT[j*K : (j+1)*K]
-			if !p.frozen {
+			if !e.transportFrozen {
 				Tm, wm := p.midpointState(w, u, j)
 				if p.midpointTransport != nil {
 					p.midpointTransport[j].mixture(Tm, p.pressure, w.xMid, w.yMid, &w.mix)
@@ -338,12 +359,15 @@ func (p *problem) midpointState(w *worker, u []float64, j int) (T, wMean float64
 
 // Residual evaluates the discretised equations (see package doc). Signs are
 // such that the transient form is w du/dt = -F(u) with w >= 0.
-func (p *problem) Residual(u, f []float64) error {
+func (p *problem) Residual(u, f []float64) error { return p.evaluate(u, f, full) }
+
+// evaluate is Residual with the evaluation e.
+func (p *problem) evaluate(u, f []float64, e evaluation) error {
 	p.evaluations++
-	if err := p.pointProperties(u); err != nil {
+	if err := p.pointProperties(u, e); err != nil {
 		return err
 	}
-	p.midpointFluxes(u)
+	p.midpointFluxes(u, e)
 	K := p.ph.nSpecies
 	cm := compM(K)
 	n := p.n
@@ -418,7 +442,7 @@ func (p *problem) TransientWeights(u, w []float64) {
 	for i := range w {
 		w[i] = 0
 	}
-	if err := p.pointProperties(u); err != nil {
+	if err := p.pointProperties(u, frozenChemistry); err != nil {
 		// Fall back to unit weights at points that could not be evaluated;
 		// the next residual call reports the problem.
 		for j := 1; j < p.n-1; j++ {
@@ -454,9 +478,7 @@ func (p *problem) Jacobian(u, f0 []float64, J *newton.BlockTridiagonal) error {
 	if err := p.Residual(u, f0); err != nil {
 		return err
 	}
-	p.frozen, p.frozenChem = true, true
-	err := newton.FiniteDifferenceJacobian(p.Residual, u, f0, J, 1e-7, 1e-12)
-	p.frozen, p.frozenChem = false, false
+	err := newton.FiniteDifferenceJacobian(p.residualWith(frozenProperties), u, f0, J, 1e-7, 1e-12)
 	if err != nil {
 		return err
 	}
