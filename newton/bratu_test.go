@@ -40,6 +40,7 @@ func (p *bratu) TransientWeights(u, w []float64) {
 type bratuAnalytic struct{ bratu }
 
 func (p *bratuAnalytic) Jacobian(u, f0 []float64, J *BlockTridiagonal) error {
+	J.Zero()
 	n := len(p.x)
 	J.DiagBlock(0)[0], J.DiagBlock(n - 1)[0] = 1, 1
 	for j := 1; j < n-1; j++ {

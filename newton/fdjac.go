@@ -5,8 +5,8 @@ import (
 	"math"
 )
 
-// FiniteDifferenceJacobian fills J with a forward-difference approximation of
-// the Jacobian of residual at u, given f0 = residual(u):
+// FiniteDifferenceJacobian sets every entry of J to a forward-difference
+// approximation of the Jacobian of residual at u, given f0 = residual(u):
 //
 //	∂F_i/∂u_k ≈ (F_i(u + h_k e_k) − F_i(u)) / h_k,   h_k = relPert·|u_k| + absPert.
 //
