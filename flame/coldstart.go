@@ -59,8 +59,12 @@ func (s *Solver) Solve(in Inlet, set Settings) (*Solution, error) {
 			for i, v := range tried {
 				guesses[i] = fmt.Sprintf("%.2g", v)
 			}
-			return nil, fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %s m/s, and %.2g m/s with whole-grid refinement)",
+			err = fmt.Errorf("%w (the start-up was tried with flame-speed guesses of %s m/s, and %.2g m/s with whole-grid refinement)",
 				first, strings.Join(guesses, ", "), last)
+			if note := crossoverNote(s.ph, in, eq); note != "" {
+				err = fmt.Errorf("%w; %s", err, note)
+			}
+			return nil, err
 		}
 	}
 	if err != nil {
