@@ -38,6 +38,9 @@ func (s *Solver) newtonSolve(st *stage, pr *problem, u []float64, loose bool) er
 	}
 	opt := s.newtonOptions(set, pr.b)
 	opt.ProjectedConvergence = st.startUp
+	if st.startUp {
+		opt.MaxTimeStepAttempts = seedTimeStepAttempts
+	}
 	opt.TimeStepsFirst = st.timeStepsFirst
 	st.timeStepsFirst = false
 	if st.timeStep > 0 {
@@ -86,6 +89,11 @@ func (s *Solver) newtonOptions(set Settings, b int) newton.Options {
 // CH4/air demo this cut the start-up from 121 to 109 Newton iterations
 // with the same S_L to nine digits.
 const timeStepTolerance = 100
+
+// seedTimeStepAttempts bounds the pseudo-time attempts of the
+// fixed-temperature start-up stage, whose answer only seeds the full solve
+// (coldStart).
+const seedTimeStepAttempts = 4
 
 // looseRelTol is the relative Newton tolerance on grids that are still being
 // refined.
