@@ -45,14 +45,21 @@ func reducedDipole(dipole, eps, sigma float64) float64 {
 //
 // One polar (p) and one non-polar (n) molecule: the dipole of p induces one
 // in n, which deepens the well; Hirschfelder, Curtiss & Bird, Molecular
-// Theory of Gases and Liquids (1954), eqs. 8.6-8 to 8.6-10:
+// Theory of Gases and Liquids (1954), sec. 8.6 (eqs. 8.6-8 to 8.6-10;
+// equation numbers from memory). The mean induction energy of a dipole
+// mu_p and a molecule of polarizability volume alpha_n,
+// -alpha_n mu_p^2/((4 pi eps0) r^6) (HCB 1954, sec. 13.3), is added to the
+// r^-6 term of the Lennard-Jones pair (with sigma^6 ~ sigma_n^3 sigma_p^3)
+// and the r^-12 term kept, which gives
 //
-//	xi      = 1 + (1/4) alpha_n* mu_p* sqrt(epsilon_p/epsilon_n)
+//	xi      = 1 + (1/4) alpha_n* mu_p*^2 sqrt(epsilon_p/epsilon_n)
 //	epsilon = sqrt(epsilon_p epsilon_n) xi^2
 //	sigma   = (sigma_p + sigma_n)/2 xi^(-1/6)
 //
-// with alpha_n* = alpha_n/sigma_n^3 and mu_p* = mu_p/sqrt((4 pi eps0)
-// k_B epsilon_p sigma_p^3); the pair is then treated as non-polar.
+// with alpha_n* = alpha_n/sigma_n^3 and mu_p*^2 = mu_p^2/((4 pi eps0)
+// k_B epsilon_p sigma_p^3) = 2 delta*_p; the pair is then treated as
+// non-polar. (Until this was corrected, mu_p* entered to the first power,
+// which is not an induction energy: for H2O-N2 xi was 1.035, not 1.055.)
 func combine(a, b *molecule) pair {
 	p := pair{
 		eps:   math.Sqrt(a.eps * b.eps),
@@ -69,8 +76,8 @@ func combine(a, b *molecule) pair {
 			pol, non = b, a
 		}
 		alphaStar := non.alpha / (non.sigma * non.sigma * non.sigma)
-		muStar := pol.dipole / math.Sqrt(fourPiEps0*boltzmann*pol.eps*pol.sigma*pol.sigma*pol.sigma)
-		xi := 1 + alphaStar*muStar*math.Sqrt(pol.eps/non.eps)/4
+		muStar2 := 2 * reducedDipole(pol.dipole, pol.eps, pol.sigma)
+		xi := 1 + alphaStar*muStar2*math.Sqrt(pol.eps/non.eps)/4
 		p.eps *= xi * xi
 		p.sigma *= math.Pow(xi, -1.0/6)
 	}
