@@ -3,8 +3,10 @@ package flame_test
 import (
 	"fmt"
 	"os"
+	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"flame1d/flame"
 	"flame1d/thermo"
@@ -30,8 +32,12 @@ import (
 // FLAME1D_TRANSPORT_TABLE_CHAIN=1 solves the first selected case of a
 // mixture from the upwind flame (cold start) continued to the central
 // scheme, and each later one from the previous case's solution
-// (Solver.SolveFrom: the other phi or transport model as a continuation),
-// which the GRI-Mech cases need on a loaded machine.
+// (Solver.SolveFrom: another transport model directly, another phi through
+// an upwind solution),
+// which the GRI-Mech cases need on a loaded machine;
+// FLAME1D_TRANSPORT_TABLE_PROGRESS=1 prints the solver's progress;
+// FLAME1D_TRANSPORT_TABLE_PHIS="1.0,0.9,0.8" replaces the equivalence
+// ratios (and their order, for a chain of continuations in phi).
 func TestTransportModelTable(t *testing.T) {
 	sel := os.Getenv("FLAME1D_TRANSPORT_TABLE")
 	if sel == "" {
@@ -56,9 +62,23 @@ func TestTransportModelTable(t *testing.T) {
 		{"MC, no Soret", flame.Multicomponent, true},
 		{"MC, Soret", flame.Multicomponent, false},
 	}
+	if v := os.Getenv("FLAME1D_TRANSPORT_TABLE_PHIS"); v != "" {
+		var phis []float64
+		for _, f := range strings.Split(v, ",") {
+			phi, err := strconv.ParseFloat(f, 64)
+			if err != nil {
+				t.Fatalf("FLAME1D_TRANSPORT_TABLE_PHIS: %v", err)
+			}
+			phis = append(phis, phi)
+		}
+		for i := range mixtures {
+			mixtures[i].phis = phis
+		}
+	}
 	for _, mx := range mixtures {
 		var s *flame.Solver
 		var last *flame.Solution // the previous cell's default-grid solution
+		lastPhi := 0.0
 		for _, phi := range mx.phis {
 			for _, md := range models {
 				cell := fmt.Sprintf("%s/air phi=%.1f %s", mx.fuel, phi, md.name)
@@ -74,12 +94,31 @@ func TestTransportModelTable(t *testing.T) {
 				set.Diffusion = md.diffusion
 				set.NoThermalDiffusion = md.noSoret
 				set.Workers = 1
+				if os.Getenv("FLAME1D_TRANSPORT_TABLE_PROGRESS") != "" {
+					set.Progress = func(p flame.Progress) {
+						fmt.Printf("%s  %s: %s, %d points, residual %.3g %s\n", time.Now().Format("15:04:05"), cell, p.Stage, p.Points, p.ResidualNorm, p.Message)
+					}
+				}
 				var coarse *flame.Solution
 				start := "cold start"
 				if chain && last != nil {
 					start = "continued"
+					from := last
+					if lastPhi != phi {
+						// A step in phi is taken with upwind convection,
+						// which converges where the central scheme stalls,
+						// then continued to the central scheme.
+						start = fmt.Sprintf("continued from phi=%.1f upwind, then to central", lastPhi)
+						up := set
+						up.CentralConvection = false
+						var err error
+						if from, err = s.SolveFrom(last, in, up); err != nil {
+							t.Errorf("%s: upwind continuation from phi=%.1f: %v", cell, lastPhi, err)
+							continue
+						}
+					}
 					var err error
-					if coarse, err = s.SolveFrom(last, in, set); err != nil {
+					if coarse, err = s.SolveFrom(from, in, set); err != nil {
 						t.Errorf("%s: continuation from the previous cell: %v", cell, err)
 						continue
 					}
@@ -98,7 +137,7 @@ func TestTransportModelTable(t *testing.T) {
 				} else {
 					coarse, _ = solve(t, s, in, set)
 				}
-				last = coarse
+				last, lastPhi = coarse, phi
 				pc, err := s.Profile(coarse)
 				if err != nil {
 					t.Fatal(err)
