@@ -3,6 +3,7 @@ package flame
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"flame1d/newton"
 )
@@ -161,6 +162,18 @@ func (s *Solver) refineLoop(sol *Solution, st *stage) (*Solution, error) {
 				return sol, nil
 			}
 			if tight {
+				split, err := s.pecletSplit(pr, sol.U)
+				if err != nil {
+					return sol, fmt.Errorf("cell Péclet numbers: %w", err)
+				}
+				if slices.Contains(split, true) && sol.Points()+count(split) <= set.Grid.MaxPoints {
+					sol.X, sol.U = bisect(sol.X, sol.U, pr.b, func(j int) bool { return split[j] })
+					sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
+					stats.Refinements++
+					s.report(set, "refine", sol.Points(), "intervals with a cell Péclet number above 2 halved before central convection")
+					tight = false
+					continue
+				}
 				centralOn = true
 			}
 			tight = true
@@ -234,11 +247,17 @@ func (s *Solver) extendDomain(sol *Solution, set Settings) bool {
 
 // bisectAll inserts the midpoint of every interval, interpolating linearly.
 func bisectAll(x, u []float64, b int) ([]float64, []float64) {
+	return bisect(x, u, b, func(int) bool { return true })
+}
+
+// bisect inserts the midpoint of every interval j (between points j and
+// j+1) for which split(j) holds, interpolating linearly.
+func bisect(x, u []float64, b int, split func(j int) bool) ([]float64, []float64) {
 	n := len(x)
 	nx := make([]float64, 0, 2*n-1)
 	nu := make([]float64, 0, (2*n-1)*b)
 	for j := 0; j < n; j++ {
-		if j > 0 {
+		if j > 0 && split(j-1) {
 			nx = append(nx, 0.5*(x[j-1]+x[j]))
 			for c := 0; c < b; c++ {
 				nu = append(nu, 0.5*(u[(j-1)*b+c]+u[j*b+c]))
@@ -248,4 +267,72 @@ func bisectAll(x, u []float64, b int) ([]float64, []float64) {
 		nu = append(nu, u[j*b:(j+1)*b]...)
 	}
 	return nx, nu
+}
+
+// Central convective face values keep a convection-diffusion equation
+// monotone only where the cell Péclet number m·Δx/Γ is at most 2 (Patankar,
+// Numerical Heat Transfer and Fluid Flow, 1980, §5.2); beyond it the
+// discrete solution can oscillate from point to point. Before central
+// convection is switched on, intervals where it exceeds pecletLimit for the
+// temperature (Γ = λ/c_p) or for a species (Γ = ρD_km) are halved, wherever
+// that component changes by more than pecletChange of its range across the
+// interval. On lean CH4/air (phi 0.8) the upwind grid had 23 such
+// intervals, Péclet numbers up to 12, near the inlet and in the post-flame
+// zone; the central solve on it did not converge in 2682 iterations.
+const (
+	pecletLimit  = 2
+	pecletChange = 1e-3
+)
+
+// pecletSplit reports, per interval of the solution u on the grid of pr,
+// whether it must be halved before central convection (see pecletLimit).
+// It evaluates the residual at u to have the properties of u.
+func (s *Solver) pecletSplit(pr *problem, u []float64) ([]bool, error) {
+	f := make([]float64, len(u))
+	if err := pr.Residual(u, f); err != nil {
+		return nil, err
+	}
+	K, b, n := s.ph.nSpecies, pr.b, pr.n
+	lo, hi := make([]float64, 1+K), make([]float64, 1+K)
+	for c := 0; c <= K; c++ {
+		lo[c], hi[c] = math.Inf(1), math.Inf(-1)
+		for j := 0; j < n; j++ {
+			lo[c], hi[c] = min(lo[c], u[j*b+c]), max(hi[c], u[j*b+c])
+		}
+	}
+	m := u[compM(K)]
+	split := make([]bool, n-1)
+	for j := 0; j+1 < n; j++ {
+		dx := pr.x[j+1] - pr.x[j]
+		changes := func(c int) bool {
+			r := hi[c] - lo[c]
+			return r > 0 && math.Abs(u[(j+1)*b+c]-u[j*b+c]) > pecletChange*r
+		}
+		cpFace := 0.5 * (pr.cp[j] + pr.cp[j+1])
+		if changes(compT) && m*dx*cpFace > pecletLimit*pr.lambda[j] {
+			split[j] = true
+			continue
+		}
+		wm := 0.5 * (pr.wMean[j] + pr.wMean[j+1])
+		for k := 0; k < K; k++ {
+			// rhoD holds rho D_km W_k/W, the coefficient of dX_k/dx.
+			gamma := pr.rhoD[j*K+k] * wm / s.ph.molarMass[k]
+			if changes(compY(k)) && m*dx > pecletLimit*gamma {
+				split[j] = true
+				break
+			}
+		}
+	}
+	return split, nil
+}
+
+// count returns the number of true values in v.
+func count(v []bool) int {
+	n := 0
+	for _, x := range v {
+		if x {
+			n++
+		}
+	}
+	return n
 }
