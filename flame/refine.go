@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"flame1d/newton"
+	"flame1d/thermo"
 )
 
 // stage is one flame solve in progress: its settings, the work done so far
@@ -302,6 +303,7 @@ func (s *Solver) pecletSplit(pr *problem, u []float64) ([]bool, error) {
 	}
 	m := u[compM(K)]
 	split := make([]bool, n-1)
+	gammas := make([]float64, K)
 	for j := 0; j+1 < n; j++ {
 		dx := pr.x[j+1] - pr.x[j]
 		changes := func(c int) bool {
@@ -313,17 +315,41 @@ func (s *Solver) pecletSplit(pr *problem, u []float64) ([]bool, error) {
 			split[j] = true
 			continue
 		}
-		wm := 0.5 * (pr.wMean[j] + pr.wMean[j+1])
+		gamma := s.faceDiffusivities(pr, u, j, gammas)
 		for k := 0; k < K; k++ {
-			// rhoD holds rho D_km W_k/W, the coefficient of dX_k/dx.
-			gamma := pr.rhoD[j*K+k] * wm / s.ph.molarMass[k]
-			if changes(compY(k)) && m*dx > pecletLimit*gamma {
+			if changes(compY(k)) && m*dx > pecletLimit*gamma[k] {
 				split[j] = true
 				break
 			}
 		}
 	}
 	return split, nil
+}
+
+// faceDiffusivities returns in gamma the species diffusivities ρD_km,
+// kg/(m s), at face j (between points j and j+1) of u: the mixture-averaged
+// coefficients of the last residual evaluation, or, with multicomponent
+// diffusion (which has no per-species coefficient), the mixture-averaged
+// ones computed at the face state, a proxy close enough for a Péclet
+// number.
+func (s *Solver) faceDiffusivities(pr *problem, u []float64, j int, gamma []float64) []float64 {
+	K := s.ph.nSpecies
+	if pr.multi == nil {
+		wm := 0.5 * (pr.wMean[j] + pr.wMean[j+1])
+		for k := range gamma {
+			// rhoD holds rho D_km W_k/W, the coefficient of dX_k/dx.
+			gamma[k] = pr.rhoD[j*K+k] * wm / s.ph.molarMass[k]
+		}
+		return gamma
+	}
+	w := pr.workers[0]
+	Tm, wm := pr.midpointState(w, u, j)
+	w.tr.Mixture(Tm, pr.pressure, w.xMid, w.yMid, &w.mix)
+	rho := pr.pressure * wm / (thermo.GasConstant * Tm)
+	for k := range gamma {
+		gamma[k] = rho * w.mix.Diffusion[k]
+	}
+	return gamma
 }
 
 // count returns the number of true values in v.
