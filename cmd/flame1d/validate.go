@@ -43,6 +43,11 @@ Writes into the output folder (-o, default validate-<mechanism>):
   scorecard-summary.csv   one row per fuel and overall
   S_L-<fuel>.png/.svg     measured bands (error bars) and predictions (line)
 
+The files are written as one set: the folder is replaced as a whole once
+every file is complete, and an interrupted run (Ctrl-C, SIGTERM) leaves the
+previous scorecard as it was. The folder must be new, empty, or one flame1d
+wrote.
+
 The measured values and their sources are in validation/data/ of the
 repository (docs/validation.md); they were recalled from the cited
 publications, and are marked so. Add measurements of your own with --data.
@@ -85,6 +90,12 @@ publications, and are marked so. Add measurements of your own with --data.
 			if outDir == "" {
 				outDir = "validate-" + strings.TrimSuffix(filepath.Base(mechanism), filepath.Ext(mechanism))
 			}
+			set, err := output.NewSet(outDir)
+			if err != nil {
+				return err
+			}
+			defer set.Abort()
+			defer abandonOnSignal(set, cmd.ErrOrStderr())()
 			opt := validation.Options{Jobs: jobs}
 			if !quiet {
 				opt.Progress = cmd.ErrOrStderr()
@@ -93,7 +104,10 @@ publications, and are marked so. Add measurements of your own with --data.
 			if err != nil {
 				return err
 			}
-			if err := sc.WriteFiles(outDir); err != nil {
+			if err := sc.WriteFiles(set.Dir()); err != nil {
+				return err
+			}
+			if err := set.Commit(); err != nil {
 				return err
 			}
 			printWarnings(cmd.ErrOrStderr(), sc.Warnings())

@@ -2,9 +2,11 @@ package main
 
 import (
 	"os"
+	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 func runValidate(t *testing.T, args ...string) (string, string, error) {
@@ -28,32 +30,60 @@ func TestValidateFlagErrors(t *testing.T) {
 			t.Errorf("%v: error %v, want one containing %q", tc.args, err, tc.want)
 		}
 	}
+	// A folder of the user's own files is refused before any flame is
+	// solved, and left alone.
+	own := filepath.Join(t.TempDir(), "own")
+	os.MkdirAll(own, 0o755)
+	os.WriteFile(filepath.Join(own, "notes.txt"), []byte("mine"), 0o644)
+	began := time.Now()
+	_, _, err := runValidate(t, "--mechanism", "burke2012-hydrogen", "--fuels", "H2", "-o", own, "-q")
+	if err == nil || !strings.Contains(err.Error(), "notes.txt") {
+		t.Errorf("folder of own files: error %v", err)
+	}
+	if time.Since(began) > 5*time.Second {
+		t.Errorf("the refusal came after %v: the folder must be checked before the solves", time.Since(began))
+	}
+	if got := tree(t, own); strings.Join(got, " ") != "notes.txt" {
+		t.Errorf("own folder now holds %v", got)
+	}
 }
 
-// The hydrogen scorecard on the Burke et al. (2012) set: the printed table
-// has every point with its band and deviation, the summary per fuel, and
-// the files are written; the other fuels are listed as not represented.
-func TestValidateHydrogen(t *testing.T) {
+// siteHydrogen is a measurement file of a user's own: one invented
+// hydrogen/air point at a fictitious test site, scored on the hydrogen
+// set in a second or two.
+const siteHydrogen = `fuel = "H2-site"
+name = "Mossbank test-rig hydrogen"
+species = ["H2"]
+formula = "H2"
+[sources.rig]
+citation = "Mossbank rig log (2026), invented for this test"
+where = "run 7"
+[[series]]
+temperature = "298 K"
+pressure = "1 atm"
+sources = ["rig"]
+points = [ { phi = 1.0, speed_cm_s = 210, band_cm_s = [195, 235] } ]
+`
+
+// Ctrl-C or SIGTERM while the scorecard is solved leaves the previous
+// scorecard whole and no temporary files; the exit status says which
+// signal, as for run and compare.
+func TestValidateInterruptKeepsPreviousSet(t *testing.T) {
 	if testing.Short() {
-		t.Skip("six hydrogen flames")
+		t.Skip("builds the command and solves flames")
 	}
-	dir := filepath.Join(t.TempDir(), "score")
-	stdout, stderr, err := runValidate(t, "--mechanism", "burke2012-hydrogen", "--fuels", "H2,CH4", "-o", dir, "-j", "2")
-	if err != nil {
-		t.Fatalf("validate: %v\n%s", err, stderr)
+	exe := buildFlame1d(t)
+	work := t.TempDir()
+	data := filepath.Join(work, "site.toml")
+	os.WriteFile(data, []byte(siteHydrogen), 0o644)
+	out := filepath.Join(work, "score")
+	if b, err := exec.Command(exe, "validate", "--mechanism", "burke2012-hydrogen", "--data", data, "--fuels", "H2-site", "-o", out, "-q", "-j", "1").CombinedOutput(); err != nil {
+		t.Fatalf("first validate: %v\n%s", err, b)
 	}
-	for _, want := range []string{"predicted on burke2012-hydrogen", "195.0-235.0", "6 of 6", "0 of 15 (15 not represented)", "6 of 21 (15 not represented)",
-		"not represented: mechanism burke2012-hydrogen has no methane species", "Results are model predictions"} {
-		if !strings.Contains(stdout, want) {
-			t.Errorf("stdout lacks %q:\n%s", want, stdout)
-		}
+	if points := readFile(t, filepath.Join(out, "scorecard.csv")); !strings.Contains(points, "H2-site") {
+		t.Fatalf("first scorecard lacks the site point:\n%s", points)
 	}
-	if !strings.Contains(stderr, "validate: [6/6] H2") {
-		t.Errorf("no progress on stderr:\n%s", stderr)
-	}
-	for _, f := range []string{"scorecard.csv", "scorecard-summary.csv", "S_L-H2.png", "S_L-CH4.svg"} {
-		if _, err := os.Stat(filepath.Join(dir, f)); err != nil {
-			t.Errorf("%s not written: %v", f, err)
-		}
-	}
+	// Fifteen methane flames on GRI-Mech 3.0: far from done after 1.5 s.
+	interruptKeepsSet(t, work, filepath.Join(out, "scorecard.csv"), exe,
+		"validate", "--mechanism", "smith1999-natgas", "--fuels", "CH4", "-o", out, "-q", "-j", "1")
 }
