@@ -4,7 +4,6 @@ import (
 	"strings"
 	"testing"
 
-	"flame1d/builtin"
 	"flame1d/thermo"
 )
 
@@ -75,14 +74,7 @@ func TestCrossoverNote(t *testing.T) {
 			t.Errorf("H2 phi 0.3, %g atm (T_ad %.0f K): note %q, want one: %v", c.P, eq.T, note, c.want)
 		}
 	}
-	gri, err := builtin.Mechanism("smith1999-natgas")
-	if err != nil {
-		t.Fatal(err)
-	}
-	ch4, err := NewSolver(gri)
-	if err != nil {
-		t.Fatal(err)
-	}
+	ch4 := builtinSolver(t, "smith1999-natgas")
 	in := stoichiometricAir(t, ch4, "CH4")
 	eq, err := adiabaticEquilibrium(ch4.ph, in)
 	if err != nil {

@@ -11,11 +11,10 @@ import (
 	"flame1d/thermo"
 )
 
-// hydrogenSolver builds the solver of the Burke et al. (2012) H2/O2
-// mechanism and a stoichiometric H2/air inlet at 298 K and 1 atm.
-func hydrogenSolver(t *testing.T) (*Solver, Inlet) {
+// builtinSolver builds the solver of a built-in mechanism.
+func builtinSolver(t *testing.T, name string) *Solver {
 	t.Helper()
-	m, err := builtin.Mechanism("burke2012-hydrogen")
+	m, err := builtin.Mechanism(name)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -23,6 +22,14 @@ func hydrogenSolver(t *testing.T) (*Solver, Inlet) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return s
+}
+
+// hydrogenSolver builds the solver of the Burke et al. (2012) H2/O2
+// mechanism and a stoichiometric H2/air inlet at 298 K and 1 atm.
+func hydrogenSolver(t *testing.T) (*Solver, Inlet) {
+	t.Helper()
+	s := builtinSolver(t, "burke2012-hydrogen")
 	return s, stoichiometricAir(t, s, "H2")
 }
 
@@ -260,27 +267,8 @@ func TestCentralConvectionPecletRefinement(t *testing.T) {
 	if testing.Short() {
 		t.Skip("full flame solve")
 	}
-	m, err := builtin.Mechanism("smith1999-natgas")
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := NewSolver(m)
-	if err != nil {
-		t.Fatal(err)
-	}
-	in := stoichiometricAir(t, s, "CH4")
-	// phi 0.8: scale the fuel's moles.
-	kf := m.SpeciesIndex("CH4")
-	sum := 0.0
-	for k := range in.Y {
-		if k == kf {
-			in.Y[k] *= 0.8
-		}
-		sum += in.Y[k]
-	}
-	for k := range in.Y {
-		in.Y[k] /= sum
-	}
+	s := builtinSolver(t, "smith1999-natgas")
+	in := airMixture(t, s, "CH4", 0.8, 298, 1)
 	set := DefaultSettings()
 	set.CentralConvection = true
 	sol, err := s.Solve(in, set)
