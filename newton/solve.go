@@ -39,8 +39,8 @@ type JacobianEvaluator interface {
 	// Jacobian sets every entry of J's blocks to ∂F/∂u at u, where
 	// f0 = F(u). J holds an earlier Jacobian on entry (zeroing it for
 	// every evaluation cost 4% of a flame solve); an evaluator that fills
-	// only the nonzero entries calls J.Zero first. f0 is scratch owned by the solver: the evaluator may
-	// overwrite it.
+	// only the nonzero entries calls J.Zero first. f0 is scratch owned by
+	// the solver: the evaluator may overwrite it.
 	Jacobian(u, f0 []float64, J *BlockTridiagonal) error
 }
 
@@ -300,8 +300,8 @@ var fdPerturbation = math.Sqrt(0x1p-52)
 // and then tries steady Newton again: the alternation used for premixed
 // flames by Smooke, Miller & Kee, Combust. Sci. Technol. 34 (1983) 79–90.
 // The pseudo-time steps start from the state the failed steady attempt
-// started from, not from where its damped steps ended. w comes from the Transient interface (1 for every
-// unknown otherwise) evaluated at u_old. A steady attempt also counts as
+// started from, not from where its damped steps ended. w comes from the
+// Transient interface (1 for every unknown otherwise) evaluated at u_old. A steady attempt also counts as
 // failed once maxStalls steps in a row were heavily damped and hardly
 // contracted. While the iteration contracts well, the factors of
 // J + diag(w/dt_old) are kept for the next pseudo-time step (dt only shifts
@@ -309,8 +309,9 @@ var fdPerturbation = math.Sqrt(0x1p-52)
 // retried with a new Jacobian.
 //
 // On success u holds the solution. Otherwise u holds the last accepted state
-// (of the last pseudo-time step when time steps were taken) and the error wraps ErrNotConverged and says why. Solve allocates its work
-// arrays once per call.
+// (of the last pseudo-time step when time steps were taken) and the error
+// wraps ErrNotConverged and says why. Solve allocates its work arrays once
+// per call.
 func Solve(p Problem, u []float64, opt Options) (Result, error) {
 	n, b := p.Size()
 	if n < 1 || b < 1 {
@@ -641,9 +642,9 @@ func (s *solver) projectedNorm(u, dx []float64) float64 {
 
 // transientNorm is the scaled norm of dx at u inside a pseudo-time step
 // once pseudo-time stepping has failed down to its minimum step
-// (solver.relaxAlgebraic),
-// leaving out components that push an algebraic unknown (transient weight
-// 0: a boundary condition, a mass-flux row) on its bound outward. Such a
+// (solver.relaxAlgebraic), leaving out components that push an algebraic
+// unknown (transient weight 0: a boundary condition, a mass-flux row) on
+// its bound outward. Such a
 // push does not shrink with the time step, and a step that keeps the
 // unknown on its bound is as good as the time step can do; a differential
 // unknown pushed outward still counts, its push shrinking with dt.
