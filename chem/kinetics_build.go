@@ -195,24 +195,10 @@ func (km *kineticsModel) addFactors(side []Participant, orders map[int]float64) 
 // addNetStoichiometry appends products-minus-reactants coefficients (zero
 // net entries dropped) and sets Δν of d.
 func (km *kineticsModel) addNetStoichiometry(r *Reaction, d *reactionData) {
-	var order []int
-	nu := map[int]float64{}
-	add := func(ps []Participant, sign float64) {
-		for _, p := range ps {
-			if _, seen := nu[p.Species]; !seen {
-				order = append(order, p.Species)
-			}
-			nu[p.Species] += sign * p.Coefficient
-		}
-	}
-	add(r.Reactants, -1)
-	add(r.Products, 1)
 	d.dnu = 0
-	for _, s := range order {
-		if v := nu[s]; v != 0 {
-			km.nus = append(km.nus, stoich{sp: int32(s), nu: v})
-			d.dnu += v
-		}
+	for _, p := range r.NetStoichiometry() {
+		km.nus = append(km.nus, stoich{sp: int32(p.Species), nu: p.Coefficient})
+		d.dnu += p.Coefficient
 	}
 }
 

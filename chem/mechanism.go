@@ -140,6 +140,31 @@ type Reaction struct {
 	Origin Position
 }
 
+// NetStoichiometry returns the reaction's net change per species (products
+// minus reactants), in order of first appearance, species whose net
+// coefficient is zero (a collider written on both sides) left out.
+func (r *Reaction) NetStoichiometry() []Participant {
+	var order []int
+	nu := map[int]float64{}
+	add := func(ps []Participant, sign float64) {
+		for _, p := range ps {
+			if _, seen := nu[p.Species]; !seen {
+				order = append(order, p.Species)
+			}
+			nu[p.Species] += sign * p.Coefficient
+		}
+	}
+	add(r.Reactants, -1)
+	add(r.Products, 1)
+	var out []Participant
+	for _, k := range order {
+		if v := nu[k]; v != 0 {
+			out = append(out, Participant{Species: k, Coefficient: v})
+		}
+	}
+	return out
+}
+
 // ThirdBody gives the collision efficiencies of [M]:
 // [M] = sum_k eff_k C_k with eff_k = Efficiencies[k] if present, else Default.
 // A reaction with one specific collider (e.g. "(+AR)") has Default 0 and one

@@ -188,7 +188,10 @@ func (s *Solver) kineticSensitivities(pr *problem, u, lambda []float64, m float6
 			return nil, nil, fmt.Errorf("sensitivities: activation energy of reaction %d (%s): only Elementary and ThreeBody steps have a single activation energy", i+1, rx[i].Equation)
 		}
 	}
-	nu := netStoichiometry(ph.mech)
+	nu := make([][]chem.Participant, R)
+	for i := range rx {
+		nu[i] = rx[i].NetStoichiometry()
+	}
 	kin := ph.kinetics.Clone()
 	conc := make([]float64, K)
 	fwd, rev, net := make([]float64, R), make([]float64, R), make([]float64, R)
@@ -218,8 +221,8 @@ func (s *Solver) kineticSensitivities(pr *problem, u, lambda []float64, m float6
 				continue
 			}
 			w := 0.0
-			for _, st := range nu[i] {
-				w += st.nu * g[st.sp]
+			for _, p := range nu[i] {
+				w += p.Coefficient * g[p.Species]
 			}
 			dmdlnk[i] += net[i] * w
 		}
@@ -229,8 +232,8 @@ func (s *Solver) kineticSensitivities(pr *problem, u, lambda []float64, m float6
 				q = fwd[i]
 			}
 			w := 0.0
-			for _, st := range nu[i] {
-				w += st.nu * g[st.sp]
+			for _, p := range nu[i] {
+				w += p.Coefficient * g[p.Species]
 			}
 			dmdlnE[e] += -rx[i].Rate.E / (thermo.GasConstant * T) * q * w
 		}
@@ -326,39 +329,6 @@ func (s *Solver) checkDiffusionScale(set Settings) error {
 		}
 	}
 	return nil
-}
-
-// stoichEntry is one species of a reaction's net stoichiometry.
-type stoichEntry struct {
-	sp int
-	nu float64 // products minus reactants
-}
-
-// netStoichiometry returns nu_ki (products minus reactants) per reaction,
-// species with zero net coefficient left out.
-func netStoichiometry(m *chem.Mechanism) [][]stoichEntry {
-	out := make([][]stoichEntry, len(m.Reactions))
-	for i := range m.Reactions {
-		r := &m.Reactions[i]
-		net := map[int]float64{}
-		var order []int
-		add := func(ps []chem.Participant, sign float64) {
-			for _, p := range ps {
-				if _, ok := net[p.Species]; !ok {
-					order = append(order, p.Species)
-				}
-				net[p.Species] += sign * p.Coefficient
-			}
-		}
-		add(r.Reactants, -1)
-		add(r.Products, 1)
-		for _, k := range order {
-			if net[k] != 0 {
-				out[i] = append(out[i], stoichEntry{sp: k, nu: net[k]})
-			}
-		}
-	}
-	return out
 }
 
 // inletDensity returns rho_u = P W/(R T) of the inlet, kg/m^3.

@@ -52,16 +52,8 @@ func findChainReactions(m *chem.Mechanism) (chainReactions, bool) {
 	}
 	net := func(r *chem.Reaction) map[int]float64 {
 		d := map[int]float64{}
-		for _, p := range r.Reactants {
-			d[p.Species] -= p.Coefficient
-		}
-		for _, p := range r.Products {
-			d[p.Species] += p.Coefficient
-		}
-		for k, v := range d {
-			if v == 0 {
-				delete(d, k)
-			}
+		for _, p := range r.NetStoichiometry() {
+			d[p.Species] = p.Coefficient
 		}
 		return d
 	}
