@@ -282,11 +282,6 @@ func (m *BlockTridiagonal) MulVec(x, y []float64) {
 	}
 }
 
-// axpy sets y += a·x; len(x) must be at least len(y).
-func axpy(a float64, x, y []float64) {
-	floats.AddScaled(y, a, x[:len(y)])
-}
-
 // dot returns Σ x_i·y_i; len(y) must be at least len(x).
 func dot(x, y []float64) float64 {
 	return floats.Dot(x, y[:len(x)])

@@ -1,5 +1,10 @@
 package newton
 
+import (
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+)
+
 // SolveTransposed overwrites rhs (length N·B, point-major) with the solution
 // λ of mᵀ·λ = rhs, using the factors from the last successful Factor. It is
 // the adjoint solve of sensitivity analysis: one transposed solve gives the
@@ -23,29 +28,15 @@ func (m *BlockTridiagonal) SolveTransposed(rhs []float64) {
 	n, b := m.N, m.B
 	bb := b * b
 	rhs = rhs[:n*b]
+	vec := func(j int) blas64.Vector { return blas64.Vector{N: b, Inc: 1, Data: rhs[j*b : (j+1)*b]} }
 	for j := 1; j < n; j++ {
-		zj := rhs[j*b : (j+1)*b]
-		zp := rhs[(j-1)*b : j*b]
-		g := m.g[(j-1)*bb : j*bb]
-		// zj −= Gᵀ zp: row r of G scaled by zp[r].
-		for r, v := range zp {
-			if v != 0 {
-				axpy(-v, g[r*b:(r+1)*b], zj)
-			}
-		}
+		blas64.Gemv(blas.Trans, -1, m.general(m.g, j-1), vec(j-1), 1, vec(j))
 	}
 	for j := n - 1; j >= 0; j-- {
-		xj := rhs[j*b : (j+1)*b]
 		if j < n-1 {
-			xn := rhs[(j+1)*b : (j+2)*b]
-			l := m.Lower[(j+1)*bb : (j+2)*bb]
-			for r, v := range xn {
-				if v != 0 {
-					axpy(-v, l[r*b:(r+1)*b], xj)
-				}
-			}
+			blas64.Gemv(blas.Trans, -1, m.general(m.Lower, j+1), vec(j+1), 1, vec(j))
 		}
-		luSolveVecTransposed(m.lu[j*bb:(j+1)*bb], m.piv[j*b:(j+1)*b], b, xj)
+		luSolveVecTransposed(m.lu[j*bb:(j+1)*bb], m.piv[j*b:(j+1)*b], b, rhs[j*b:(j+1)*b])
 	}
 }
 
