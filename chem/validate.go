@@ -262,6 +262,20 @@ func (m *Mechanism) SpeciesIndex(name string) int {
 	return -1
 }
 
+// SpeciesIndexFold returns the index of the named species, matched exactly
+// or else ignoring case (mechanisms write "OH" or "oh"), or -1.
+func (m *Mechanism) SpeciesIndexFold(name string) int {
+	if i := m.SpeciesIndex(name); i >= 0 {
+		return i
+	}
+	for i := range m.Species {
+		if strings.EqualFold(m.Species[i].Name, name) {
+			return i
+		}
+	}
+	return -1
+}
+
 // MolarMasses returns each species' molar mass in kg/mol, computed from its
 // composition and standard atomic weights.
 func (m *Mechanism) MolarMasses() ([]float64, error) {

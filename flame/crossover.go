@@ -3,7 +3,6 @@ package flame
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"flame1d/chem"
 	"flame1d/thermo"
@@ -44,7 +43,7 @@ type chainReactions struct {
 func findChainReactions(m *chem.Mechanism) (chainReactions, bool) {
 	idx := map[string]int{}
 	for _, name := range []string{"H", "O2", "O", "OH", "HO2"} {
-		i := speciesIndexFold(m, name)
+		i := m.SpeciesIndexFold(name)
 		if i < 0 {
 			return chainReactions{}, false
 		}
@@ -79,17 +78,6 @@ func findChainReactions(m *chem.Mechanism) (chainReactions, bool) {
 		}
 	}
 	return cr, len(cr.branching) > 0 && len(cr.termination) > 0
-}
-
-// speciesIndexFold finds a species by name, ignoring case (mechanisms
-// write "OH" or "oh").
-func speciesIndexFold(m *chem.Mechanism, name string) int {
-	for i, s := range m.Species {
-		if strings.EqualFold(s.Name, name) {
-			return i
-		}
-	}
-	return -1
 }
 
 // crossoverTemperature returns the chain-branching crossover temperature

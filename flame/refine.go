@@ -3,7 +3,6 @@ package flame
 import (
 	"fmt"
 	"math"
-	"slices"
 
 	"flame1d/newton"
 	"flame1d/thermo"
@@ -167,7 +166,7 @@ func (s *Solver) refineLoop(sol *Solution, st *stage) (*Solution, error) {
 				if err != nil {
 					return sol, fmt.Errorf("cell Péclet numbers: %w", err)
 				}
-				if slices.Contains(split, true) && sol.Points()+count(split) <= set.Grid.MaxPoints {
+				if added := count(split); added > 0 && sol.Points()+added <= set.Grid.MaxPoints {
 					sol.X, sol.U = bisect(sol.X, sol.U, pr.b, func(j int) bool { return split[j] })
 					sol.AnchorX = sol.X[indexOf(sol.X, sol.AnchorX)]
 					stats.Refinements++

@@ -90,7 +90,7 @@ func AugmentMechanism(m *chem.Mechanism, pool *Pool, rate chem.Arrhenius) (*chem
 		return nil, fmt.Errorf("augment mechanism: rate A = %g, b = %g, E = %g J/mol is not a valid irreversible step", rate.A, rate.B, rate.E)
 	}
 	name := pool.Pseudo.Name
-	if m.SpeciesIndex(name) >= 0 || caseInsensitiveIndex(m, name) >= 0 {
+	if m.SpeciesIndexFold(name) >= 0 {
 		return nil, fmt.Errorf("augment mechanism: the pseudo-species name %q is already a species of %s; choose another with species_name", name, m.Name)
 	}
 	out := *m

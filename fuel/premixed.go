@@ -39,25 +39,13 @@ func Composition(m *chem.Mechanism, what string, amounts map[string]float64) ([]
 	}
 	sort.Strings(names)
 	for _, n := range names {
-		k := m.SpeciesIndex(n)
-		if k < 0 {
-			k = caseInsensitiveIndex(m, n)
-		}
+		k := m.SpeciesIndexFold(n)
 		if k < 0 {
 			return nil, fmt.Errorf("%s: species %q is not in mechanism %s%s", what, n, m.Name, suggestion(m, n))
 		}
 		v[k] += amounts[n]
 	}
 	return v, nil
-}
-
-func caseInsensitiveIndex(m *chem.Mechanism, name string) int {
-	for i := range m.Species {
-		if strings.EqualFold(m.Species[i].Name, name) {
-			return i
-		}
-	}
-	return -1
 }
 
 // suggestion names the mechanism species closest to name (edit distance).
